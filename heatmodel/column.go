@@ -1,0 +1,48 @@
+package heatmodel
+
+// Column is one input over a batch of trials: either the same value for
+// every trial (Values nil) or one value per trial.
+type Column struct {
+	Const  float64
+	Values []float64
+}
+
+// Const returns a Column holding v for every trial.
+func Const(v float64) Column { return Column{Const: v} }
+
+// Vary returns a Column holding one value per trial.
+func Vary(v []float64) Column { return Column{Values: v} }
+
+// At returns the value of trial i.
+func (c Column) At(i int) float64 {
+	if c.Values == nil {
+		return c.Const
+	}
+	return c.Values[i]
+}
+
+// Scale returns a column with every value multiplied by f, writing into
+// buf (of at least n values) when c varies.
+func (c Column) Scale(f float64, buf []float64) Column {
+	if c.Values == nil {
+		return Const(c.Const * f)
+	}
+	out := buf[:len(c.Values)]
+	for i, v := range c.Values {
+		out[i] = v * f
+	}
+	return Vary(out)
+}
+
+// Shift returns a column with d added to every value, writing into buf
+// when c varies.
+func (c Column) Shift(d float64, buf []float64) Column {
+	if c.Values == nil {
+		return Const(c.Const + d)
+	}
+	out := buf[:len(c.Values)]
+	for i, v := range c.Values {
+		out[i] = v + d
+	}
+	return Vary(out)
+}

@@ -1,0 +1,135 @@
+package sampler
+
+import (
+	"math"
+	"slices"
+	"testing"
+)
+
+// TestLatinHypercubeStrata checks the defining property of Latin hypercube
+// sampling (McKay, Beckman & Conover 1979): with N trials, each of the N
+// equal-probability strata of every input holds exactly one draw. Runs of
+// one batch, of several batches stratified as a whole, and of the last,
+// partial batch are covered.
+func TestLatinHypercubeStrata(t *testing.T) {
+	t.Parallel()
+	for _, trials := range []int{1, 7, 1000, BatchSize, 3*BatchSize + 123} {
+		u, _ := NewUniform(0, 1)
+		tri, _ := NewTriangular(3, 6, 14)
+		dists := []Distribution{u, tri}
+		cdfs := []func(float64) float64{func(x float64) float64 { return x }, tri.d.CDF}
+		p := NewPlan(dists, Config{Trials: trials, Seed: 42, Method: LatinHypercube})
+		cols := fillAll(t, p)
+		for j, col := range cols {
+			seen := make([]int, trials)
+			for _, x := range col {
+				k := int(math.Floor(cdfs[j](x) * float64(trials)))
+				if k == trials { // x at the upper limit
+					k--
+				}
+				seen[k]++
+			}
+			for k, c := range seen {
+				if c != 1 {
+					t.Fatalf("trials %d, input %d: stratum %d holds %d draws, want 1", trials, j, k, c)
+				}
+			}
+		}
+	}
+}
+
+// TestLatinHypercubePerBatch checks that a plan stratified per batch puts
+// exactly one draw of every batch in each of that batch's n strata.
+func TestLatinHypercubePerBatch(t *testing.T) {
+	t.Parallel()
+	u, _ := NewUniform(0, 1)
+	trials := 2*BatchSize + 999
+	p := NewPlan([]Distribution{u}, Config{Trials: trials, Seed: 9, Method: LatinHypercube, PerBatch: true})
+	col := fillAll(t, p)[0]
+	for b := 0; b < p.Batches(); b++ {
+		start, n := p.BatchRange(b)
+		seen := make([]int, n)
+		for _, x := range col[start : start+n] {
+			seen[min(int(x*float64(n)), n-1)]++
+		}
+		for k, c := range seen {
+			if c != 1 {
+				t.Fatalf("batch %d: stratum %d holds %d draws, want 1", b, k, c)
+			}
+		}
+	}
+}
+
+// fillAll fills every batch of p, in reverse order, into full columns.
+func fillAll(t *testing.T, p *Plan) [][]float64 {
+	t.Helper()
+	cols := make([][]float64, len(p.dists))
+	for j := range cols {
+		cols[j] = make([]float64, p.Trials())
+	}
+	for b := p.Batches() - 1; b >= 0; b-- {
+		start, n := p.BatchRange(b)
+		sub := make([][]float64, len(cols))
+		for j := range cols {
+			sub[j] = cols[j][start : start+n]
+		}
+		if err := p.Fill(b, sub); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return cols
+}
+
+// TestFillDeterministic checks that a batch's draws depend only on the
+// seed and the batch index, not on the order batches are filled in, and
+// that another seed gives other draws.
+func TestFillDeterministic(t *testing.T) {
+	t.Parallel()
+	u, _ := NewUniform(0, 1)
+	for _, m := range []Method{LatinHypercube, Random} {
+		p := NewPlan([]Distribution{u, u}, Config{Trials: 2*BatchSize + 5, Seed: 7, Method: m})
+		a := fillAll(t, p)
+		b := make([][]float64, 2)
+		for j := range b {
+			b[j] = make([]float64, p.Trials())
+		}
+		for bi := 0; bi < p.Batches(); bi++ {
+			start, n := p.BatchRange(bi)
+			if err := p.Fill(bi, [][]float64{b[0][start : start+n], b[1][start : start+n]}); err != nil {
+				t.Fatal(err)
+			}
+		}
+		for j := range a {
+			if !slices.Equal(a[j], b[j]) {
+				t.Fatalf("%v: input %d differs with fill order", m, j)
+			}
+		}
+		c := fillAll(t, NewPlan([]Distribution{u, u}, Config{Trials: 2*BatchSize + 5, Seed: 8, Method: m}))
+		if slices.Equal(a[0], c[0]) {
+			t.Fatalf("%v: seeds 7 and 8 give the same draws", m)
+		}
+	}
+}
+
+func BenchmarkFill(b *testing.B) {
+	u, _ := NewUniform(800, 1600)
+	tri, _ := NewTriangular(3, 6, 14)
+	pert, _ := NewPERT(0.02, 0.06, 0.12)
+	nrm, _ := NewNormal(235, 12, 200, math.Inf(1))
+	dists := []Distribution{u, tri, pert, nrm}
+	for _, m := range []Method{LatinHypercube, Random} {
+		b.Run(m.String(), func(b *testing.B) {
+			p := NewPlan(dists, Config{Trials: 1_000_000, Seed: 1, Method: m})
+			cols := make([][]float64, len(dists))
+			for j := range cols {
+				cols[j] = make([]float64, BatchSize)
+			}
+			for b.Loop() {
+				if err := p.Fill(0, cols); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*BatchSize*len(dists)), "ns/draw")
+		})
+	}
+}

@@ -1,0 +1,67 @@
+package scenarios
+
+import (
+	"embed"
+	"fmt"
+	"io/fs"
+	"os"
+	"path"
+	"sort"
+	"strings"
+)
+
+//go:embed examples/*.toml
+var examplesFS embed.FS
+
+// Example is a bundled scenario: an invented prospect to run or copy.
+type Example struct {
+	Name  string // name to give `rockheat examples NAME`, e.g. "demo"
+	Title string // the scenario's title
+	Text  []byte // the commented TOML file
+}
+
+// Examples returns the bundled example scenarios, sorted by name.
+func Examples() []Example {
+	entries, err := fs.ReadDir(examplesFS, "examples")
+	if err != nil {
+		panic(err) // embedded at build time
+	}
+	var out []Example
+	for _, e := range entries {
+		text, err := examplesFS.ReadFile("examples/" + e.Name())
+		if err != nil {
+			panic(err)
+		}
+		name := strings.TrimSuffix(e.Name(), path.Ext(e.Name()))
+		ex := Example{Name: name, Text: text}
+		if s, err := Parse(name, text); err == nil {
+			ex.Title = s.Title
+		}
+		out = append(out, ex)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Name < out[j].Name })
+	return out
+}
+
+// LookupExample returns the bundled example with the given name.
+func LookupExample(name string) (Example, error) {
+	var names []string
+	for _, ex := range Examples() {
+		if ex.Name == name {
+			return ex, nil
+		}
+		names = append(names, ex.Name)
+	}
+	return Example{}, fmt.Errorf("no bundled example named %q; the examples are %s", name, strings.Join(names, ", "))
+}
+
+// Load reads the scenario at arg: a file path, or the name of a bundled
+// example when no such file exists and arg has no .toml suffix.
+func Load(arg string) (*Scenario, error) {
+	if _, err := os.Stat(arg); err != nil && !strings.HasSuffix(arg, ".toml") && !strings.ContainsRune(arg, '/') {
+		if ex, err := LookupExample(arg); err == nil {
+			return Parse("example "+ex.Name, ex.Text)
+		}
+	}
+	return LoadFile(arg)
+}
