@@ -46,3 +46,16 @@ func (c Column) Shift(d float64, buf []float64) Column {
 	}
 	return Vary(out)
 }
+
+// Map returns a column with f applied to every value, writing into buf
+// when c varies.
+func (c Column) Map(f func(float64) float64, buf []float64) Column {
+	if c.Values == nil {
+		return Const(f(c.Const))
+	}
+	out := buf[:len(c.Values)]
+	for i, v := range c.Values {
+		out[i] = f(v)
+	}
+	return Vary(out)
+}

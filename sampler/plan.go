@@ -2,7 +2,9 @@ package sampler
 
 import (
 	"fmt"
+	"math"
 	"math/rand/v2"
+	"sync"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -72,12 +74,20 @@ func NewPlan(dists []Distribution, cfg Config) *Plan {
 	if trials < 1 {
 		panic("sampler: NewPlan with trials < 1")
 	}
-	p := &Plan{dists: dists, trials: trials, seed: seed, method: cfg.Method, corr: cfg.Correlation}
+	p := &Plan{dists: dists, trials: trials, seed: seed, method: cfg.Method, corr: scoresCorrelation(cfg.Correlation)}
 	if cfg.Method == LatinHypercube && !cfg.PerBatch && trials <= GlobalLHSLimit && trials > BatchSize {
+		// One stream per input: the permutations are independent of each
+		// other and are drawn concurrently.
 		p.perm = make([][]int32, len(dists))
+		var wg sync.WaitGroup
 		for j := range dists {
-			p.perm[j] = permutation(rand.New(rand.NewPCG(seed, permStream|uint64(j))), make([]int32, trials))
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				p.perm[j] = permutation(rand.New(rand.NewPCG(seed, permStream|uint64(j))), make([]int32, trials))
+			}()
 		}
+		wg.Wait()
 	}
 	return p
 }
@@ -140,7 +150,7 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 		for j := range cols {
 			sub[j] = cols[j][:n]
 		}
-		return correlate(sub, p.corr, rng)
+		return ImanConover(sub, p.corr, rng)
 	}
 	return nil
 }
@@ -153,4 +163,30 @@ func permutation(rng *rand.Rand, perm []int32) []int32 {
 	}
 	rng.Shuffle(len(perm), func(a, b int) { perm[a], perm[b] = perm[b], perm[a] })
 	return perm
+}
+
+// scoresCorrelation returns the correlation to induce among normal scores
+// so that the Spearman rank correlation comes out at target: for a
+// bivariate normal with Pearson correlation r, Spearman's coefficient is
+// (6/π)·asin(r/2) (Pearson 1907; Kruskal 1958), so each off-diagonal ρs
+// becomes r = 2·sin(π·ρs/6). The change is at most 0.018 in size. Should
+// the adjusted matrix not be positive definite (only near the edge of the
+// feasible set) the target itself is used.
+func scoresCorrelation(target *mat.SymDense) *mat.SymDense {
+	if target == nil {
+		return nil
+	}
+	k := target.SymmetricDim()
+	adj := mat.NewSymDense(k, nil)
+	for i := 0; i < k; i++ {
+		adj.SetSym(i, i, 1)
+		for j := i + 1; j < k; j++ {
+			adj.SetSym(i, j, 2*math.Sin(math.Pi*target.At(i, j)/6))
+		}
+	}
+	var ch mat.Cholesky
+	if !ch.Factorize(adj) {
+		return target
+	}
+	return adj
 }

@@ -4,6 +4,8 @@ import (
 	"math"
 	"slices"
 	"testing"
+
+	"gonum.org/v1/gonum/stat"
 )
 
 // TestLatinHypercubeStrata checks the defining property of Latin hypercube
@@ -131,5 +133,47 @@ func BenchmarkFill(b *testing.B) {
 			}
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*BatchSize*len(dists)), "ns/draw")
 		})
+	}
+}
+
+// TestPlanRankCorrelation checks that a plan with a target rank
+// correlation achieves it as Spearman's coefficient (Pearson correlation
+// of ranks, gonum stat.Correlation) for LHS and random sampling, within
+// 4 standard errors (1 − ρ²)/√(n − 1) (from memory; the usual large-n
+// approximation), while every marginal keeps its Latin hypercube strata.
+func TestPlanRankCorrelation(t *testing.T) {
+	t.Parallel()
+	u, _ := NewUniform(0, 1)
+	tri, _ := NewTriangular(3, 6, 14)
+	ln, _ := NewLogNormal(0, 0.5, 0, math.Inf(1))
+	target, err := BuildCorrelation([]string{"a", "b", "c"}, []Pair{{"a", "b", -0.6}, {"b", "c", 0.5}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const n = 20000
+	for _, m := range []Method{LatinHypercube, Random} {
+		p := NewPlan([]Distribution{u, tri, ln}, Config{Trials: n, Seed: 11, Method: m, Correlation: target})
+		cols := fillAll(t, p)
+		for _, c := range []struct {
+			i, j int
+			rho  float64
+		}{{0, 1, -0.6}, {1, 2, 0.5}, {0, 2, 0}} {
+			got := stat.Correlation(ranks(cols[c.i]), ranks(cols[c.j]), nil)
+			se := (1 - c.rho*c.rho) / math.Sqrt(n-1)
+			if math.Abs(got-c.rho) > 4*se+0.01 {
+				t.Errorf("%v: Spearman(%d, %d) = %.4f, want %.2f ± %.4f", m, c.i, c.j, got, c.rho, 4*se+0.01)
+			}
+		}
+		if m == LatinHypercube {
+			seen := make([]int, n)
+			for _, x := range cols[0] {
+				seen[min(int(x*n), n-1)]++
+			}
+			for k, c := range seen {
+				if c != 1 {
+					t.Fatalf("stratum %d of input 0 holds %d draws after correlation", k, c)
+				}
+			}
+		}
 	}
 }

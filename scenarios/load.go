@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"github.com/BurntSushi/toml"
+	"gonum.org/v1/gonum/mat"
 
 	"rockheat/sampler"
 )
@@ -18,18 +19,37 @@ import (
 const (
 	// KindReservoir is the volumetric heat in place of a reservoir block.
 	KindReservoir = "reservoir"
+	// KindHotRock is the heat above a minimum useful temperature in a
+	// conductive rock column, mined by a circulated water flow.
+	KindHotRock = "hot-rock"
 )
 
 // Fluid property sources.
 const (
 	// FluidFixed takes fluid density and heat capacity from the inputs.
 	FluidFixed = "fixed"
+	// FluidIF97 takes them from IAPWS-IF97 at the fluid's temperature and
+	// pressure.
+	FluidIF97 = "if97"
 )
 
 // Conversion routes from recoverable heat to electric capacity.
 const (
 	// ConversionEfficiency multiplies recoverable heat by a conversion efficiency.
 	ConversionEfficiency = "efficiency"
+	// ConversionExergy multiplies the available work of the produced
+	// fluid by a utilization efficiency (USGS Circular 790).
+	ConversionExergy = "exergy"
+)
+
+// DefaultReportYears are the times of a hot-rock run's power decline
+// figures when [model] report_years is not given.
+var DefaultReportYears = []float64{0, 10, 20, 30}
+
+// Limits of IAPWS-IF97 region 1 (compressed liquid) used with fluid = "if97".
+const (
+	if97MaxTempC     = 350 // 623.15 K
+	if97MaxPressureM = 100 // MPa
 )
 
 // Defaults of the [run] table.
@@ -45,9 +65,31 @@ const (
 
 // Model holds the [model] settings.
 type Model struct {
-	Kind       string // KindReservoir
-	Fluid      string // FluidFixed
-	Conversion string // ConversionEfficiency
+	Kind       string // KindReservoir or KindHotRock
+	Fluid      string // FluidFixed or FluidIF97
+	Conversion string // ConversionEfficiency or ConversionExergy
+	// Layered is true when [[layers]] give a piecewise geotherm (hot-rock);
+	// Layers then lists them from the surface down.
+	Layered bool
+	Layers  []Layer
+	// ReportYears are the times, years, of the hot-rock power figures.
+	ReportYears []float64
+}
+
+// Layer is one [[layers]] entry: down to BottomKm the rock temperature
+// rises at GradientCPerKm.
+type Layer struct {
+	BottomKm       float64 // km below the surface
+	GradientCPerKm float64 // °C/km
+	Line           int
+}
+
+// Correlation is one [[correlations]] entry: the target Spearman rank
+// correlation of two sampled inputs.
+type Correlation struct {
+	Inputs [2]string
+	Rank   float64
+	Line   int
 }
 
 // Input is one entry of [inputs], in the units named by its key.
@@ -72,6 +114,11 @@ type Scenario struct {
 	Model    Model
 	// Inputs lists every input of the model, in the order of KindsFor.
 	Inputs []Input
+	// Correlations lists the [[correlations]] entries.
+	Correlations []Correlation
+	// Correlation is the target rank correlation matrix of the sampled
+	// (not fixed) inputs, in their order in Inputs; nil if none is given.
+	Correlation *mat.SymDense
 	// Source is the file's text.
 	Source []byte
 }
@@ -104,11 +151,20 @@ type raw struct {
 		Sampling *string `toml:"sampling"`
 	} `toml:"run"`
 	Model struct {
-		Kind       *string `toml:"kind"`
-		Fluid      *string `toml:"fluid"`
-		Conversion *string `toml:"conversion"`
+		Kind        *string   `toml:"kind"`
+		Fluid       *string   `toml:"fluid"`
+		Conversion  *string   `toml:"conversion"`
+		ReportYears []float64 `toml:"report_years"`
 	} `toml:"model"`
 	Inputs map[string]any `toml:"inputs"`
+	Layers []struct {
+		BottomKm       *float64 `toml:"bottom_km"`
+		GradientCPerKm *float64 `toml:"gradient_c_per_km"`
+	} `toml:"layers"`
+	Correlations []struct {
+		Inputs []string `toml:"inputs"`
+		Rank   *float64 `toml:"rank"`
+	} `toml:"correlations"`
 }
 
 // Parse checks the scenario text src, read from path (used in messages).
@@ -164,9 +220,10 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	}
 
 	s.Model = Model{Kind: KindReservoir, Fluid: FluidFixed, Conversion: ConversionEfficiency}
-	c.choice("model.kind", r.Model.Kind, &s.Model.Kind, []string{KindReservoir})
-	c.choice("model.fluid", r.Model.Fluid, &s.Model.Fluid, []string{FluidFixed})
-	c.choice("model.conversion", r.Model.Conversion, &s.Model.Conversion, []string{ConversionEfficiency})
+	c.choice("model.kind", r.Model.Kind, &s.Model.Kind, []string{KindReservoir, KindHotRock})
+	c.choice("model.fluid", r.Model.Fluid, &s.Model.Fluid, []string{FluidFixed, FluidIF97})
+	c.choice("model.conversion", r.Model.Conversion, &s.Model.Conversion, []string{ConversionEfficiency, ConversionExergy})
+	c.modelSettings(s, &r)
 
 	keys := KeysFor(s.Model)
 	known := map[string]bool{}
@@ -190,6 +247,9 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	for _, k := range keys {
 		v, ok := r.Inputs[k.Name]
 		if !ok {
+			if k.Optional {
+				continue
+			}
 			if k.Required {
 				c.lines["inputs."+k.Name] = c.lines["inputs"]
 				c.add("inputs."+k.Name, "missing: the %s (%s) is required; add e.g. %s = { dist = \"uniform\", min = ..., max = ... }", k.Doc, k.Unit, k.Name)
@@ -203,13 +263,20 @@ func Parse(path string, src []byte) (*Scenario, error) {
 			s.Inputs = append(s.Inputs, in)
 		}
 	}
+	if len(c.problems) == 0 {
+		c.crossChecks(s)
+	}
+	if len(c.problems) == 0 {
+		c.correlations(s, &r)
+	}
 	if len(c.problems) > 0 {
 		return nil, c.problems
 	}
 	return s, nil
 }
 
-var knownTopKeys = []string{"title", "run.trials", "run.seed", "run.sampling", "model.kind", "model.fluid", "model.conversion"}
+var knownTopKeys = []string{"title", "run.trials", "run.seed", "run.sampling", "model.kind", "model.fluid",
+	"model.conversion", "model.report_years", "layers", "correlations"}
 
 type checker struct {
 	path     string

@@ -1,0 +1,26 @@
+// Command rockheat estimates the heat in place and the power capacity of a
+// geothermal prospect from a scenario file of uncertain inputs, by Monte
+// Carlo or Latin hypercube sampling, and reports P90/P50/P10 figures.
+//
+// Usage:
+//
+//	rockheat run SCENARIO [--format text|json|csv] [--samples FILE] [--trials N] [--seed S] [--workers W]
+//	rockheat validate SCENARIO...
+//	rockheat examples [NAME]
+//
+// SCENARIO is a TOML file or the name of a bundled example. Exit status is
+// 0 on success, 1 when a run fails, 2 for bad usage or a bad scenario.
+package main
+
+import (
+	"fmt"
+	"os"
+)
+
+func main() {
+	err := run(os.Stdout, os.Stderr, os.Args)
+	if err != nil {
+		fmt.Fprintln(os.Stderr, "rockheat:", err)
+	}
+	os.Exit(exitCode(err))
+}

@@ -1,0 +1,266 @@
+package rockheat
+
+import (
+	"fmt"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/stat/distuv"
+
+	"rockheat/sampler"
+	"rockheat/scenarios"
+	"rockheat/stats"
+)
+
+func mustParse(t testing.TB, src string) *scenarios.Scenario {
+	t.Helper()
+	s, err := scenarios.Parse("test.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// lognormalScenario has four independent lognormal factors of heat in
+// place (area, thickness, rock heat capacity, temperature above a 0 °C
+// reference) and no porosity, so Q = 1e6·A·h·ρr·cr·Tr is lognormal with
+// ln Q ~ N(ln(1e6·ρr) + Σμi, Σσi²).
+const lognormalScenario = `
+title = "lognormal product"
+[run]
+trials = 100000
+seed = 3
+sampling = "%s"
+[inputs]
+area_km2 = { dist = "lognormal", p90 = 3, p10 = 12 }
+thickness_m = { dist = "lognormal", p90 = 600, p10 = 1500 }
+reservoir_temp_c = { dist = "lognormal", p90 = 150, p10 = 260 }
+reference_temp_c = 0
+porosity = 0
+rock_density_kg_m3 = 2650
+rock_heat_capacity_j_kgk = { dist = "lognormal", p90 = 800, p10 = 1000 }
+fluid_density_kg_m3 = 1000
+fluid_heat_capacity_j_kgk = 4180
+recovery_factor = 0.1
+conversion_efficiency = 0.1
+capacity_factor = 1
+life_years = 30
+`
+
+// TestLognormalProduct checks the Monte Carlo P90/P50/P10 of a product of
+// independent lognormal inputs against the analytic lognormal quantiles
+// (gonum distuv.LogNormal). Tolerance: 5 standard errors of a sample
+// quantile of plain Monte Carlo, σ·sqrt(q(1−q)/n)/φ(z_q) in relative terms
+// (asymptotic variance of a sample quantile, e.g. Serfling 1980 §2.3);
+// Latin hypercube sampling is at least as accurate.
+func TestLognormalProduct(t *testing.T) {
+	t.Parallel()
+	for _, method := range []string{"random", "lhs"} {
+		s := mustParse(t, strings.Replace(lognormalScenario, "%s", method, 1))
+		mu := math.Log(1e6 * 2650)
+		var s2 float64
+		for _, pq := range [][2]float64{{3, 12}, {600, 1500}, {150, 260}, {800, 1000}} {
+			lo, hi := math.Log(pq[0]), math.Log(pq[1])
+			z := distuv.UnitNormal.Quantile(0.9)
+			mu += (lo + hi) / 2
+			s2 += math.Pow((hi-lo)/(2*z), 2)
+		}
+		ref := distuv.LogNormal{Mu: mu, Sigma: math.Sqrt(s2)}
+		res, err := Estimate(s, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		q := res.Outputs[0].Summary
+		n := float64(res.Trials)
+		for _, c := range []struct {
+			name string
+			got  float64
+			prob float64 // non-exceedance probability
+		}{{"P90", q.P90, 0.1}, {"P50", q.P50, 0.5}, {"P10", q.P10, 0.9}} {
+			want := ref.Quantile(c.prob)
+			z := distuv.UnitNormal.Quantile(c.prob)
+			tol := 5 * ref.Sigma * math.Sqrt(c.prob*(1-c.prob)/n) / distuv.UnitNormal.Prob(z)
+			if rel := math.Abs(c.got/want - 1); rel > tol {
+				t.Errorf("%s %s = %.6g J, analytic %.6g J: relative error %.2g > %.2g", method, c.name, c.got, want, rel, tol)
+			}
+		}
+		if !(q.P90 <= q.P50 && q.P50 <= q.P10) {
+			t.Errorf("%s: percentiles out of order: %g %g %g", method, q.P90, q.P50, q.P10)
+		}
+		// The mean of a lognormal is exp(μ + σ²/2); sample mean standard
+		// error sd/√n.
+		if d := math.Abs(q.Mean - ref.Mean()); d > 5*ref.StdDev()/math.Sqrt(n) {
+			t.Errorf("%s mean = %.6g, analytic %.6g", method, q.Mean, ref.Mean())
+		}
+	}
+}
+
+// TestChainIdentities checks that the outputs keep the model's chain for
+// every trial of a mixed scenario: recoverable = R·Q, thermal power =
+// Qr/L and electric power = η·Qr/(F·L), in report units.
+func TestChainIdentities(t *testing.T) {
+	t.Parallel()
+	ex, err := scenarios.LookupExample("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Estimate(s, Options{Trials: 3000, KeepSamples: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for j, n := range res.Samples.Names {
+		col[n] = j
+	}
+	v := func(name string, i int) float64 { return res.Samples.Value(col[name], i) }
+	for i := 0; i < 3000; i++ {
+		q := v("heat_in_place", i)
+		qr := v("recoverable_heat", i)
+		life := v("life_years", i) * 365.25 * 86400
+		if got, want := qr, v("recovery_factor", i)*q; math.Abs(got-want) > 1e-12*want {
+			t.Fatalf("trial %d: Qr = %g, want R·Q = %g", i, got, want)
+		}
+		if got, want := v("thermal_power", i), qr/life/1e6; math.Abs(got-want) > 1e-12*want {
+			t.Fatalf("trial %d: thermal power %g MW, want %g", i, got, want)
+		}
+		if got, want := v("electric_power", i), v("conversion_efficiency", i)*qr/(v("capacity_factor", i)*life)/1e6; math.Abs(got-want) > 1e-12*want {
+			t.Fatalf("trial %d: electric power %g MW, want %g", i, got, want)
+		}
+	}
+}
+
+// TestWorkersDoNotChangeResults: same seed, bit-identical summaries and
+// samples for 1, 2 and 8 workers, over several batches.
+func TestWorkersDoNotChangeResults(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var first *Result
+	for _, w := range []int{1, 2, 8} {
+		res, err := Estimate(s, Options{Trials: 200_001, Workers: w, KeepSamples: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if first == nil {
+			first = res
+			continue
+		}
+		for j := range res.Outputs {
+			a, b := res.Outputs[j].Summary, first.Outputs[j].Summary
+			a.Warnings, b.Warnings = nil, nil
+			if !reflect.DeepEqual(a, b) {
+				t.Errorf("workers %d: %s summary differs: %+v vs %+v", w, res.Outputs[j].Spec.Name, res.Outputs[j].Summary, first.Outputs[j].Summary)
+			}
+		}
+		for j := range res.Samples.Columns {
+			a, b := res.Samples.Columns[j], first.Samples.Columns[j]
+			for i := range a {
+				if a[i] != b[i] {
+					t.Fatalf("workers %d: %s differs at trial %d", w, res.Samples.Names[j], i)
+				}
+			}
+		}
+	}
+}
+
+func BenchmarkEstimate(b *testing.B) {
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, n := range []int{1_000, 100_000, 1_000_000} {
+		b.Run(fmt.Sprintf("trials=%d", n), func(b *testing.B) {
+			for b.Loop() {
+				if _, err := Estimate(s, Options{Trials: n}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// TestStreamingMatchesExact runs the same plain Monte Carlo draws through
+// the exact route and the sketch route: percentiles agree within the
+// sketch's stated relative error bound (stats.Sketch), and the mean, from
+// exact sums in both, is identical.
+func TestStreamingMatchesExact(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Sampling = sampler.Random
+	exact, err := Estimate(s, Options{Trials: 300_000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	str, err := Estimate(s, Options{Trials: 300_000, Stream: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if exact.Streaming || !str.Streaming {
+		t.Fatalf("streaming flags %v %v", exact.Streaming, str.Streaming)
+	}
+	for j := range exact.Outputs {
+		a, b := exact.Outputs[j].Summary, str.Outputs[j].Summary
+		for _, c := range [][2]float64{{a.P90, b.P90}, {a.P50, b.P50}, {a.P10, b.P10}} {
+			if math.Abs(c[1]/c[0]-1) > str.SketchRelErr {
+				t.Errorf("%s: sketch %g vs exact %g beyond the bound %g", exact.Outputs[j].Spec.Name, c[1], c[0], str.SketchRelErr)
+			}
+		}
+		if a.Mean != b.Mean || a.Min != b.Min || a.Max != b.Max {
+			t.Errorf("%s: mean/min/max differ: %g %g %g vs %g %g %g", exact.Outputs[j].Spec.Name, a.Mean, a.Min, a.Max, b.Mean, b.Min, b.Max)
+		}
+	}
+	if exact.ZeroHeatTrials != str.ZeroHeatTrials {
+		t.Errorf("zero-heat trials %d vs %d", exact.ZeroHeatTrials, str.ZeroHeatTrials)
+	}
+}
+
+// TestPrecisionStops checks the stopping rule: the run ends with every
+// percentile's interval narrower than asked, and the same for 1 and 2
+// workers.
+func TestPrecisionStops(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var trials []int
+	for _, w := range []int{1, 2} {
+		res, err := Estimate(s, Options{Trials: 10_000, Precision: 0.01, Workers: w})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !res.Converged {
+			t.Fatalf("did not converge in %d trials", res.Trials)
+		}
+		for _, o := range res.Outputs {
+			q := o.Summary
+			for _, c := range []struct {
+				v  float64
+				iv stats.Interval
+			}{{q.P90, q.P90CI}, {q.P50, q.P50CI}, {q.P10, q.P10CI}} {
+				if h := stats.RelativeHalfWidth(c.iv, c.v); h >= 0.01 {
+					t.Errorf("%s: half-width %.4f ≥ 0.01", o.Spec.Name, h)
+				}
+			}
+		}
+		trials = append(trials, res.Trials)
+	}
+	if trials[0] != trials[1] {
+		t.Errorf("stopped at %d trials with 1 worker, %d with 2", trials[0], trials[1])
+	}
+}

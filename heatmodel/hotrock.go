@@ -1,0 +1,324 @@
+package heatmodel
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Layer is one layer of a layered geotherm: from the bottom of the layer
+// above (or the surface) down to Bottom the temperature rises at Gradient.
+type Layer struct {
+	Bottom   float64 // m below the surface, > 0, deeper than the layer above
+	Gradient float64 // K/m, > 0
+}
+
+// Profile is the shape of a conductive geotherm below the surface: the
+// rise of the rock temperature above the surface temperature as a
+// function of depth, piecewise linear and increasing. The surface
+// temperature is not part of it, so one Profile serves trials of
+// different surface temperatures: T(z) = Ts + p.Rise(z).
+//
+// A Profile is either uniform (UniformProfile: T = Ts + G·z) or layered
+// (NewProfile). Below the bottom of a layered profile's last layer, the
+// last layer's gradient continues without end. The zero Profile has no
+// shape (IsZero); HotRock reads it as "no fixed geotherm given".
+type Profile struct {
+	g      float64   // K/m, the gradient of a uniform profile (layers nil)
+	layers []Layer   // layered profile, bottoms increasing
+	rise   []float64 // K, rise at the top of each layer; rise[0] = 0
+}
+
+// UniformProfile returns the profile of a single gradient g, K/m, with
+// constraint g > 0: Rise(z) = g·z. It panics if g ≤ 0 or is NaN; a
+// scenario's gradient range must be checked before sampling.
+func UniformProfile(g float64) Profile {
+	if !(g > 0) {
+		panic(fmt.Sprintf("heatmodel: UniformProfile with gradient %g K/m, want > 0", g))
+	}
+	return Profile{g: g}
+}
+
+// NewProfile returns the layered profile of layers, listed from the surface
+// down. Constraints: at least one layer; bottoms (m) finite, > 0 and
+// strictly increasing; gradients (K/m) finite and > 0. Below the last
+// bottom the last gradient continues. Every problem found is reported, in
+// one error joined by errors.Join; layers are numbered from 1 at the
+// surface. NewProfile copies layers.
+func NewProfile(layers []Layer) (Profile, error) {
+	if len(layers) == 0 {
+		return Profile{}, errors.New("heatmodel: layered profile has no layers: give at least one layer (bottom depth and gradient)")
+	}
+	var errs []error
+	prev := 0.0
+	for k, l := range layers {
+		switch {
+		case math.IsNaN(l.Bottom) || math.IsInf(l.Bottom, 0):
+			errs = append(errs, fmt.Errorf("heatmodel: layer %d: bottom %g m is not a finite depth: give the depth of the layer's base in metres", k+1, l.Bottom))
+		case k == 0 && l.Bottom <= 0:
+			errs = append(errs, fmt.Errorf("heatmodel: layer 1: bottom %g m is not below the surface: give a depth > 0 m", l.Bottom))
+		case k > 0 && l.Bottom <= prev:
+			errs = append(errs, fmt.Errorf("heatmodel: layer %d: bottom %g m is not below layer %d's bottom %g m: list layers from the surface down with increasing bottom depths", k+1, l.Bottom, k, prev))
+		}
+		if !(l.Gradient > 0) || math.IsInf(l.Gradient, 0) {
+			errs = append(errs, fmt.Errorf("heatmodel: layer %d: gradient %g K/m is not finite and > 0: give the rise of temperature with depth, > 0", k+1, l.Gradient))
+		}
+		if !math.IsNaN(l.Bottom) {
+			prev = l.Bottom
+		}
+	}
+	if len(errs) > 0 {
+		return Profile{}, errors.Join(errs...)
+	}
+	p := Profile{layers: append([]Layer(nil), layers...), rise: make([]float64, len(layers))}
+	top := 0.0
+	for k, l := range p.layers[:len(p.layers)-1] {
+		p.rise[k+1] = p.rise[k] + l.Gradient*(l.Bottom-top)
+		top = l.Bottom
+	}
+	return p, nil
+}
+
+// IsZero reports whether p is the zero Profile, which has no shape.
+func (p Profile) IsZero() bool { return p.layers == nil && p.g == 0 }
+
+// Layers returns a copy of the layers of a layered profile, or nil for a
+// uniform or zero profile.
+func (p Profile) Layers() []Layer {
+	if p.layers == nil {
+		return nil
+	}
+	return append([]Layer(nil), p.layers...)
+}
+
+// Rise returns the rise of the rock temperature above the surface
+// temperature at depth z, K, for z ≥ 0 m.
+func (p Profile) Rise(z float64) float64 {
+	if p.layers == nil {
+		return p.g * z
+	}
+	top := 0.0
+	last := len(p.layers) - 1
+	for k, l := range p.layers {
+		if z <= l.Bottom || k == last {
+			return p.rise[k] + l.Gradient*(z-top)
+		}
+		top = l.Bottom
+	}
+	panic("unreachable")
+}
+
+// Temperature returns the rock temperature at depth z ≥ 0 m, K, under a
+// surface at ts, K: ts + p.Rise(z).
+func (p Profile) Temperature(ts, z float64) float64 { return ts + p.Rise(z) }
+
+// Depth returns the depth, m, at which the rock temperature has risen by
+// rise, K, above the surface temperature: the inverse of Rise, and 0 for
+// rise ≤ 0 (the surface is already that hot).
+func (p Profile) Depth(rise float64) float64 {
+	if rise <= 0 {
+		return 0
+	}
+	if p.layers == nil {
+		return rise / p.g
+	}
+	top := 0.0
+	last := len(p.layers) - 1
+	for k, l := range p.layers {
+		if k == last || rise <= p.rise[k]+l.Gradient*(l.Bottom-top) {
+			return top + (rise-p.rise[k])/l.Gradient
+		}
+		top = l.Bottom
+	}
+	panic("unreachable")
+}
+
+// excess returns ∫_a^b (Rise(z) − d) dz, K·m, for 0 ≤ a ≤ b, integrating
+// each linear segment exactly (trapezoid rule on a straight line).
+func (p Profile) excess(d, a, b float64) float64 {
+	if p.layers == nil {
+		return (p.g*a - d + p.g*b - d) / 2 * (b - a)
+	}
+	sum, top := 0.0, 0.0
+	last := len(p.layers) - 1
+	for k, l := range p.layers {
+		bottom := l.Bottom
+		if k == last {
+			bottom = math.Inf(1)
+		}
+		if lo, hi := max(a, top), min(b, bottom); hi > lo {
+			elo := p.rise[k] + l.Gradient*(lo-top) - d
+			ehi := p.rise[k] + l.Gradient*(hi-top) - d
+			sum += (elo + ehi) / 2 * (hi - lo)
+		}
+		if bottom >= b {
+			break
+		}
+		top = bottom
+	}
+	return sum
+}
+
+// UsefulTop returns z1, m: the depth at which the rock of profile p under
+// a surface at ts, K, reaches the minimum useful temperature tmin, K, or
+// top, m, if that is deeper. It is 0 if tmin ≤ ts and top ≤ 0.
+func UsefulTop(p Profile, ts, tmin, top float64) float64 {
+	return max(p.Depth(tmin-ts), top)
+}
+
+// UsefulHeat returns the useful heat per unit area between depths z1 and
+// z2, m, J/m²: E0/A = ρr·cr·∫_{z1}^{z2} (T(z) − Tmin) dz, with T(z) =
+// ts + p.Rise(z), temperatures ts and tmin in K, rock density ρr in kg/m³
+// and heat capacity cr in J/(kg·K). Rock colder than tmin adds nothing:
+// z1 is first moved down to the depth where T = tmin if that is deeper.
+// The integral is exact for the piecewise-linear profile; for a uniform
+// gradient G with T(z1) = tmin it is ρr·cr·G·(z2 − z1)²/2 (the
+// heat-mining model of Armstead & Tester 1987, "Heat Mining", as given in
+// renewable-energy textbooks). It returns 0 if z1 ≥ z2.
+func UsefulHeat(p Profile, ts, tmin, z1, z2, rockDensity, rockHeatCapacity float64) float64 {
+	z1 = UsefulTop(p, ts, tmin, z1)
+	if z1 >= z2 {
+		return 0
+	}
+	return rockDensity * rockHeatCapacity * p.excess(tmin-ts, z1, z2)
+}
+
+// TimeConstant returns τ, s, the e-folding time of heat mining from the
+// rock between depths z1 < z2, m, by water circulated at flux, m³/s per m²
+// of area (m/s): τ = ρr·cr·(z2 − z1) / (flux·ρw·cw), with rock density ρr
+// and water density ρw in kg/m³, and heat capacities cr and cw in
+// J/(kg·K) (Armstead & Tester 1987, "Heat Mining"; renewable-energy
+// textbooks). The model takes the rock column as one well-mixed body that
+// the water leaves at the rock's mean temperature.
+func TimeConstant(z1, z2, rockDensity, rockHeatCapacity, flux, waterDensity, waterHeatCapacity float64) float64 {
+	return rockDensity * rockHeatCapacity * (z2 - z1) / (flux * waterDensity * waterHeatCapacity)
+}
+
+// HeatMiningPower returns the thermal power at time t, s, of heat mining
+// from useful heat e0 with time constant tau, s: P(t) = (e0/τ)·e^(−t/τ)
+// (Armstead & Tester 1987, "Heat Mining"; renewable-energy textbooks).
+// The unit is that of e0 per second: W for e0 in J, W/m² for J/m².
+func HeatMiningPower(e0, tau, t float64) float64 {
+	return e0 / tau * math.Exp(-t/tau)
+}
+
+// HeatMined returns the heat extracted by time t, s, from useful heat e0
+// with time constant tau, s: e0·(1 − e^(−t/τ)), the integral of
+// HeatMiningPower from 0 to t, in the unit of e0.
+func HeatMined(e0, tau, t float64) float64 {
+	return -e0 * math.Expm1(-t/tau)
+}
+
+// HotRock holds the inputs of the hot-rock (heat-mining) model, one column
+// per input, in SI units: an engineered system that circulates water
+// through hot, dry, conductive rock and mines the rock's stored heat.
+//
+// The rock temperature is T(z) = Ts + Rise(z): a uniform gradient per trial
+// (Gradient) or a layered profile fixed for all trials (Geotherm) under a
+// per-trial surface temperature. The useful rock lies from z1, where
+// T = MinTemp or TopDepth if deeper, down to z2 = MaxDepth. With Area A
+// and the heat-mining model of Armstead & Tester (1987, "Heat Mining"),
+// as given in renewable-energy textbooks:
+//
+//	E0 = A·ρr·cr·∫_{z1}^{z2} (T(z) − Tmin) dz     useful heat, J
+//	τ  = ρr·cr·(z2 − z1) / (q·ρw·cw)              time constant, s
+//	P(t) = (E0/τ)·e^(−t/τ)                        thermal power, W
+//	Er = E0·(1 − e^(−L/τ))                        heat recovered over life L, J
+//	Pth = Er / L                                  mean thermal power, W
+//	Pe = η·Pth / F                                electric capacity, W
+//
+// with q the circulated water flux (m³/s per m² of area), η conversion
+// efficiency and F capacity factor. For a uniform gradient G and no
+// deeper TopDepth, z1 = (Tmin − Ts)/G and E0 = A·ρr·cr·G·(z2 − z1)²/2.
+// If Tmin ≤ Ts, z1 is TopDepth (the surface for 0). The model cools the
+// whole column z1–z2 as one well-mixed body, so τ and P(t) hold for a
+// layered geotherm too, with E0 from its exact piecewise integral.
+type HotRock struct {
+	Area        Column // m², > 0
+	SurfaceTemp Column // K, Ts
+	// Gradient is the uniform gradient of each trial, K/m, > 0; it is not
+	// read when Geotherm is not zero.
+	Gradient Column
+	// Geotherm, unless zero, is the geotherm's shape for every trial
+	// (usually layered, from NewProfile) under the trial's SurfaceTemp.
+	// The zero Profile selects a uniform gradient from the Gradient column.
+	Geotherm             Profile
+	MinTemp              Column    // K, Tmin, the minimum useful rock temperature: the water's injection temperature
+	TopDepth             Column    // m, ≥ 0, shallowest rock to be mined (0: no limit)
+	MaxDepth             Column    // m, > 0, z2, the drilling limit
+	RockDensity          Column    // kg/m³, > 0
+	RockHeatCapacity     Column    // J/(kg·K), > 0
+	Flux                 Column    // m³/s of circulated water per m² of area (m/s), > 0
+	WaterDensity         Column    // kg/m³, > 0
+	WaterHeatCapacity    Column    // J/(kg·K), > 0
+	ConversionEfficiency Column    // fraction, (0, 1]
+	CapacityFactor       Column    // fraction, (0, 1]
+	Life                 Column    // s, > 0
+	ReportTimes          []float64 // s, ≥ 0, times at which PowerAt reports P(t)
+}
+
+// HotRockOutputs holds the outputs of the hot-rock model, one value per
+// trial, as totals over the area. Every slice must have at least the
+// batch's length, and PowerAt one slice per report time.
+type HotRockOutputs struct {
+	HeatInPlace   []float64   // J, useful heat E0 above MinTemp between z1 and z2
+	TimeConstant  []float64   // s, τ
+	InitialPower  []float64   // W, P(0) = E0/τ
+	PowerAt       [][]float64 // W, PowerAt[k][i] = P(ReportTimes[k]) of trial i
+	Recovered     []float64   // J, E0·(1 − e^(−L/τ)), heat mined over the life
+	MeanPower     []float64   // W, mean thermal power over the life
+	ElectricPower []float64   // W, electric capacity
+}
+
+// Evaluate computes the n trials of h into out, and returns the number of
+// trials with no useful heat: those with no rock at or above MinTemp
+// between TopDepth and MaxDepth (z1 ≥ z2), for which every output is 0. It panics if an output
+// is shorter than n, if len(out.PowerAt) ≠ len(h.ReportTimes), or if a
+// uniform gradient is ≤ 0.
+func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
+	if len(out.HeatInPlace) < n || len(out.TimeConstant) < n || len(out.InitialPower) < n ||
+		len(out.Recovered) < n || len(out.MeanPower) < n || len(out.ElectricPower) < n {
+		panic(fmt.Sprintf("heatmodel: HotRock.Evaluate with outputs shorter than n = %d", n))
+	}
+	if len(out.PowerAt) != len(h.ReportTimes) {
+		panic(fmt.Sprintf("heatmodel: HotRock.Evaluate with %d PowerAt columns for %d report times", len(out.PowerAt), len(h.ReportTimes)))
+	}
+	for k, col := range out.PowerAt {
+		if len(col) < n {
+			panic(fmt.Sprintf("heatmodel: HotRock.Evaluate with PowerAt[%d] shorter than n = %d", k, n))
+		}
+	}
+	fixed := !h.Geotherm.IsZero()
+	p := h.Geotherm
+	for i := 0; i < n; i++ {
+		if !fixed {
+			p = UniformProfile(h.Gradient.At(i))
+		}
+		ts, tmin := h.SurfaceTemp.At(i), h.MinTemp.At(i)
+		z1, z2 := UsefulTop(p, ts, tmin, h.TopDepth.At(i)), h.MaxDepth.At(i)
+		if z1 >= z2 {
+			out.HeatInPlace[i], out.TimeConstant[i], out.InitialPower[i] = 0, 0, 0
+			out.Recovered[i], out.MeanPower[i], out.ElectricPower[i] = 0, 0, 0
+			for _, col := range out.PowerAt {
+				col[i] = 0
+			}
+			zeroHeat++
+			continue
+		}
+		rhoR, cR := h.RockDensity.At(i), h.RockHeatCapacity.At(i)
+		e0 := h.Area.At(i) * UsefulHeat(p, ts, tmin, z1, z2, rhoR, cR)
+		tau := TimeConstant(z1, z2, rhoR, cR, h.Flux.At(i), h.WaterDensity.At(i), h.WaterHeatCapacity.At(i))
+		life := h.Life.At(i)
+		rec := HeatMined(e0, tau, life)
+		out.HeatInPlace[i] = e0
+		out.TimeConstant[i] = tau
+		out.InitialPower[i] = HeatMiningPower(e0, tau, 0)
+		for k, t := range h.ReportTimes {
+			out.PowerAt[k][i] = HeatMiningPower(e0, tau, t)
+		}
+		out.Recovered[i] = rec
+		out.MeanPower[i] = rec / life
+		out.ElectricPower[i] = h.ConversionEfficiency.At(i) * (rec / life) / h.CapacityFactor.At(i)
+	}
+	return zeroHeat
+}

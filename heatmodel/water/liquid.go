@@ -1,0 +1,41 @@
+package water
+
+// Liquid returns the state of compressed liquid water at pressure p in Pa
+// and temperature T in K, from IF97 region 1. It is the function a
+// reservoir model calls once per trial to get the pore-fluid density and
+// heat capacity.
+//
+// Constraints: 273.15 K ≤ T ≤ 623.15 K and p_s(T) ≤ p ≤ 100 MPa. When p is
+// below the saturation pressure p_s(T) the water at (p, T) is steam, and
+// Liquid returns a *StateError with Region 2 that says so and how to fix
+// the input; above 623.15 K the error names the region the state lies in
+// (2, 3 or 5).
+func Liquid(p, T float64) (State, error) {
+	// The common case first: one range test and one saturation pressure.
+	if p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature {
+		ps := saturationPressure(T)
+		if p >= ps {
+			return region1(p, T), nil
+		}
+		return State{}, steamErr(p, T, ps)
+	}
+	if err := checkDomain(p, T); err != nil {
+		return State{}, err
+	}
+	return State{}, aboveRegion1Err(p, T, "keep the reservoir temperature ≤ 623.15 K (350 °C)")
+}
+
+// steamErr is Liquid's error for a state on the steam side of saturation,
+// p < ps = p_s(T).
+func steamErr(p, T, ps float64) error {
+	if p < minSaturationPressure {
+		return stateErr(p, T, 2,
+			"is steam, not liquid: p is below the saturation pressure p_s(T) = %s, and below 611.213 Pa water is "+
+				"vapour at every temperature of IF97; raise the reservoir pressure above p_s(T) (give it in Pa, 1 MPa = 1e6 Pa)",
+			fmtPressure(ps))
+	}
+	return stateErr(p, T, 2,
+		"is steam, not liquid: p is below the saturation pressure p_s(T) = %s (at this p water boils at T_s(p) = %.6g K); "+
+			"raise the reservoir pressure above p_s(T), or use a liquid state with T below T_s(p)",
+		fmtPressure(ps), saturationTemperature(p))
+}

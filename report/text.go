@@ -1,0 +1,232 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"strings"
+
+	"rockheat"
+)
+
+// energyUnit picks a readable unit for heat figures of magnitude x, J.
+func energyUnit(x float64) (name string, scale float64) {
+	switch ax := math.Abs(x); {
+	case ax >= 1e18:
+		return "EJ (10^18 J)", 1e18
+	case ax >= 1e15:
+		return "PJ (10^15 J)", 1e15
+	case ax >= 1e12:
+		return "TJ (10^12 J)", 1e12
+	}
+	return "J", 1
+}
+
+// Text writes r as a summary table for people: the headline figures in
+// readable units, the percentile convention and method, the inputs, any
+// warnings and the caution.
+func Text(w io.Writer, r *rockheat.Result) error {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s\n", r.Title)
+	fmt.Fprintf(&b, "%s\n", strings.Repeat("=", len([]rune(r.Title))))
+	fmt.Fprintf(&b, "Scenario  %s\n", r.Path)
+	fmt.Fprintf(&b, "Model     %s\n", modelLine(r.Kind))
+	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed)
+
+	level := r.Confidence
+	// One energy unit for every heat row, chosen from the largest median.
+	var big float64
+	for _, o := range r.Outputs {
+		if o.Spec.Unit == "J" {
+			big = math.Max(big, math.Abs(o.Summary.P50))
+		}
+	}
+	eUnit, eScale := energyUnit(big)
+	rows := [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
+	for _, o := range r.Outputs {
+		s := o.Summary
+		unit, scale := o.Spec.Unit, 1.0
+		if unit == "J" {
+			unit, scale = eUnit, eScale
+		}
+		rows = append(rows, []string{o.Spec.Doc, fig(s.P90 / scale), fig(s.P50 / scale), fig(s.P10 / scale), fig(s.Mean / scale), unit})
+		rows = append(rows, []string{"", ci(s.P90CI.Lo/scale, s.P90CI.Hi/scale), ci(s.P50CI.Lo/scale, s.P50CI.Hi/scale), ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale), "", ""})
+	}
+	table(&b, rows, "lrrrrl")
+	fmt.Fprintf(&b, "\nRanges in brackets are %.0f%% distribution-free confidence intervals of each percentile\n(order statistics, binomial; Hahn & Meeker 1991): how far the figure could move with more trials.\n", 100*level)
+	wrap(&b, Convention, 100)
+	if r.ZeroHeatTrials > 0 {
+		fmt.Fprintf(&b, "%d of %d trials (%.2f%%) had no heat above the reference temperature and count as zero.\n",
+			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials))
+	} else {
+		fmt.Fprintf(&b, "No trial had its temperature at or below the reference temperature.\n")
+	}
+
+	if r.Streaming {
+		fmt.Fprintf(&b, "Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.\n", 100*r.SketchRelErr)
+	}
+	if r.PerBatch {
+		fmt.Fprintf(&b, "The Latin hypercube is stratified per batch of %d trials.\n", 65536)
+	}
+	if r.Precision > 0 {
+		if r.Converged {
+			fmt.Fprintf(&b, "Ran until every P90, P50 and P10 interval was within ±%.3g%%: %d trials.\n", 100*r.Precision, r.Trials)
+		} else {
+			fmt.Fprintf(&b, "Stopped at the trial cap (%d trials) before every interval was within ±%.3g%%.\n", r.Trials, 100*r.Precision)
+		}
+	}
+	sensitivityText(&b, r)
+
+	b.WriteString("\nInputs\n")
+	var in [][]string
+	for _, x := range r.Inputs {
+		in = append(in, []string{"  " + x.Key, x.Unit, x.Dist})
+	}
+	table(&b, in, "lll")
+
+	b.WriteString("\nMethod\n")
+	wrap(&b, methodText(r.Kind), 100)
+	for _, wmsg := range r.Warnings {
+		wrap(&b, "WARNING: "+wmsg, 100)
+	}
+	b.WriteString("\n")
+	wrap(&b, "CAUTION: "+Caution, 100)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// headline lists the outputs whose drivers the text report shows.
+var headline = map[string]bool{"heat_in_place": true, "electric_power": true}
+
+// sensitivityText writes, for the headline outputs, the inputs that drive
+// them most, with a bar for each one's share of the variance.
+func sensitivityText(b *strings.Builder, r *rockheat.Result) {
+	const top, barWidth = 6, 20
+	for j, s := range r.Sensitivity {
+		if !headline[s.Output] || len(s.Influences) == 0 {
+			continue
+		}
+		o := r.Outputs[j]
+		unit, scale := o.Spec.Unit, 1.0
+		if unit == "J" {
+			unit, scale = energyUnit(o.Summary.P50)
+			unit = strings.Fields(unit)[0]
+		}
+		fmt.Fprintf(b, "\nWhat drives %s (Spearman rank correlation, share of variance, and %s with the input at its P90 → P10):\n", o.Spec.Doc, unit)
+		var rows [][]string
+		for i, f := range s.Influences {
+			if i == top {
+				break
+			}
+			n := int(math.Round(f.VarianceShare * barWidth))
+			bar := strings.Repeat("█", n) + strings.Repeat("·", barWidth-n)
+			rho := f.RankCorrelation
+			if math.Abs(rho) < 0.005 {
+				rho = 0 // no "-0.00"
+			}
+			rows = append(rows, []string{"  " + f.Input, fmt.Sprintf("%+.2f", rho), bar, fmt.Sprintf("%3.0f%%", 100*f.VarianceShare),
+				fig(f.SwingLow/scale) + " → " + fig(f.SwingHigh/scale)})
+		}
+		table(b, rows, "lrlrl")
+		if more := len(s.Influences) - top; more > 0 {
+			fmt.Fprintf(b, "  (%d more with smaller shares)\n", more)
+		}
+	}
+	if len(r.Sensitivity) > 0 && r.SensitivityN < r.Trials {
+		fmt.Fprintf(b, "Sensitivities come from the first %d trials.\n", r.SensitivityN)
+	}
+}
+
+func modelLine(kind string) string {
+	switch kind {
+	case "reservoir":
+		return "reservoir (volumetric heat in place)"
+	}
+	return kind
+}
+
+func methodText(kind string) string {
+	switch kind {
+	case "reservoir":
+		return "Volumetric heat in place (Muffler & Cataldi 1978; USGS Circular 790): Q = A·h·[(1−φ)·ρr·cr + φ·ρf·cf]·(Tr − Tref); " +
+			"recoverable heat Qr = R·Q; mean thermal power Qr/L; electric capacity η·Qr/(F·L), " +
+			"with R recovery factor, η conversion efficiency, F capacity factor and L plant life (years of 365.25 days)."
+	}
+	return ""
+}
+
+func samplingName(s string) string {
+	switch s {
+	case "lhs":
+		return "Latin hypercube"
+	case "random":
+		return "plain Monte Carlo"
+	}
+	return s
+}
+
+// fig formats a figure with four significant digits.
+func fig(x float64) string {
+	if x == 0 {
+		return "0"
+	}
+	ax := math.Abs(x)
+	if ax >= 1e6 || ax < 1e-3 {
+		return fmt.Sprintf("%.3e", x)
+	}
+	d := 3 - int(math.Floor(math.Log10(ax)))
+	if d < 0 {
+		d = 0
+	}
+	return fmt.Sprintf("%.*f", d, x)
+}
+
+func ci(lo, hi float64) string { return "[" + fig(lo) + ", " + fig(hi) + "]" }
+
+// table writes rows with columns padded, column i aligned left or right
+// as align[i] is 'l' or 'r'.
+func table(b *strings.Builder, rows [][]string, align string) {
+	var width []int
+	for _, r := range rows {
+		for i, c := range r {
+			if i >= len(width) {
+				width = append(width, 0)
+			}
+			width[i] = max(width[i], len([]rune(c)))
+		}
+	}
+	for _, r := range rows {
+		var line strings.Builder
+		for i, c := range r {
+			pad := strings.Repeat(" ", width[i]-len([]rune(c)))
+			sep := "  "
+			if i == 0 {
+				sep = ""
+			}
+			if align[i] == 'l' {
+				line.WriteString(sep + c + pad)
+			} else {
+				line.WriteString(sep + pad + c)
+			}
+		}
+		b.WriteString(strings.TrimRight(line.String(), " ") + "\n")
+	}
+}
+
+// wrap writes text folded at width columns.
+func wrap(b *strings.Builder, text string, width int) {
+	n := 0
+	for i, w := range strings.Fields(text) {
+		l := len([]rune(w))
+		if i > 0 && n+1+l > width {
+			b.WriteString("\n")
+			n = 0
+		} else if i > 0 {
+			b.WriteString(" ")
+			n++
+		}
+		b.WriteString(w)
+		n += l
+	}
+	b.WriteString("\n")
+}

@@ -1,0 +1,177 @@
+package stats
+
+import (
+	"cmp"
+	"math"
+	"math/bits"
+	"slices"
+)
+
+// Ranks returns the ranks 1 … n of the values x, with tied values given
+// the average of the ranks they span (so ranks are multiples of ½ and sum
+// to n(n+1)/2). x is not changed. Ranks takes O(n) time (radix sort). It
+// panics if x holds a NaN or more than 2^31−1 values.
+func Ranks(x []float64) []float64 {
+	n := len(x)
+	if n > math.MaxInt32 {
+		panic("stats: Ranks of more than 2^31−1 values")
+	}
+	keys := make([]uint64, n)
+	idx := make([]int32, n)
+	for i, v := range x {
+		if v != v {
+			panic("stats: Ranks of a column with NaN; drop the NaN trials first")
+		}
+		keys[i] = key(v)
+		idx[i] = int32(i)
+	}
+	if n < radixMin {
+		slices.SortStableFunc(idx, func(a, b int32) int { return cmp.Compare(keys[a], keys[b]) })
+		for i, j := range idx {
+			keys[i] = key(x[j])
+		}
+	} else {
+		keys, idx = radixSort(keys, make([]uint64, n), idx, make([]int32, n))
+	}
+	r := make([]float64, n)
+	for a := 0; a < n; {
+		b := a + 1
+		for b < n && unkey(keys[b]) == unkey(keys[a]) { // −0 ties +0
+			b++
+		}
+		avg := float64(a+b+1) / 2 // mean of the ranks a+1 … b
+		for _, j := range idx[a:b] {
+			r[j] = avg
+		}
+		a = b
+	}
+	return r
+}
+
+// RankColumns returns the Ranks of each column, so that a column ranked
+// once can be correlated with several others by CorrelateRanks.
+func RankColumns(cols [][]float64) [][]float64 {
+	r := make([][]float64, len(cols))
+	for i, c := range cols {
+		r[i] = Ranks(c)
+	}
+	return r
+}
+
+// Spearman returns Spearman's rank correlation coefficient of x and y: the
+// Pearson correlation of their ranks (average ranks for ties), in [−1, 1].
+// It is 0 when either column is constant (including n < 2). It panics if
+// the lengths differ or a value is NaN.
+func Spearman(x, y []float64) float64 {
+	return CorrelateRanks(Ranks(x), Ranks(y))
+}
+
+// CorrelateRanks returns the Pearson correlation of two rank columns as
+// returned by Ranks, which is Spearman's coefficient of the ranked
+// values; it is 0 when either column is constant. Because ranks are
+// multiples of ½ with known mean (n+1)/2, the sums are formed exactly in
+// integer arithmetic: the result is the correctly computed ratio, up to a
+// few rounding errors, and independent of the order of the trials. It
+// panics if the lengths differ or a value is not a rank of a column of
+// that length.
+func CorrelateRanks(rx, ry []float64) float64 {
+	n := len(rx)
+	if len(ry) != n {
+		panic("stats: CorrelateRanks of columns of different lengths")
+	}
+	var sxy, sxx, syy int128
+	c := float64(n + 1)
+	for i := range n {
+		dx, dy := 2*rx[i]-c, 2*ry[i]-c // integers in (−n, n)
+		ix, iy := int64(dx), int64(dy)
+		if float64(ix) != dx || float64(iy) != dy || dx <= -float64(n) || dx >= float64(n) ||
+			dy <= -float64(n) || dy >= float64(n) {
+			panic("stats: CorrelateRanks of values that are not ranks")
+		}
+		sxy.add(ix * iy)
+		sxx.add(ix * ix)
+		syy.add(iy * iy)
+	}
+	vx, vy := sxx.float(), syy.float()
+	if vx == 0 || vy == 0 {
+		return 0
+	}
+	r := sxy.float() / math.Sqrt(vx*vy) // exactly ±1 for equal or reversed ranks
+	return math.Max(-1, math.Min(1, r))
+}
+
+// int128 is a two's-complement 128-bit accumulator.
+type int128 struct{ hi, lo uint64 }
+
+func (s *int128) add(p int64) {
+	var c uint64
+	s.lo, c = bits.Add64(s.lo, uint64(p), 0)
+	s.hi += uint64(p>>63) + c
+}
+
+func (s int128) float() float64 {
+	hi, lo := s.hi, s.lo
+	neg := int64(hi) < 0
+	if neg {
+		var b uint64
+		lo, b = bits.Sub64(0, lo, 0)
+		hi = -hi - b
+	}
+	f := float64(hi)*0x1p64 + float64(lo)
+	if neg {
+		return -f
+	}
+	return f
+}
+
+// Influence is one input's effect on an output, from rank correlation.
+type Influence struct {
+	// Input is the input's name.
+	Input string
+	// RankCorrelation is Spearman's coefficient of the input and the
+	// output, in [−1, 1]; 0 for a constant input.
+	RankCorrelation float64
+	// VarianceShare is RankCorrelation² / Σ RankCorrelation² over all
+	// inputs, in [0, 1]: the approximate fraction of the output's variance
+	// due to the input. It is meaningful for near-additive, monotone
+	// models with independent inputs; for others it only ranks the inputs.
+	VarianceShare float64
+}
+
+// RankSensitivity returns the Influence of each input column on output,
+// sorted by |RankCorrelation| descending, ties by name and then by input
+// order. names[i] names inputs[i]; every column must have the length of
+// output. It panics on mismatched lengths or NaN values.
+func RankSensitivity(names []string, inputs [][]float64, output []float64) []Influence {
+	if len(names) != len(inputs) {
+		panic("stats: RankSensitivity with different numbers of names and inputs")
+	}
+	return RankedSensitivity(names, RankColumns(inputs), Ranks(output))
+}
+
+// RankedSensitivity is RankSensitivity for columns already ranked by Ranks
+// or RankColumns, so that the inputs are ranked once for several outputs.
+func RankedSensitivity(names []string, inputRanks [][]float64, outputRanks []float64) []Influence {
+	if len(names) != len(inputRanks) {
+		panic("stats: RankedSensitivity with different numbers of names and inputs")
+	}
+	inf := make([]Influence, len(names))
+	var ss float64
+	for i, r := range inputRanks {
+		rho := CorrelateRanks(r, outputRanks)
+		inf[i] = Influence{Input: names[i], RankCorrelation: rho}
+		ss += rho * rho
+	}
+	if ss > 0 {
+		for i := range inf {
+			inf[i].VarianceShare = inf[i].RankCorrelation * inf[i].RankCorrelation / ss
+		}
+	}
+	slices.SortStableFunc(inf, func(a, b Influence) int {
+		if c := cmp.Compare(math.Abs(b.RankCorrelation), math.Abs(a.RankCorrelation)); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.Input, b.Input)
+	})
+	return inf
+}

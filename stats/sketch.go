@@ -1,0 +1,397 @@
+package stats
+
+import (
+	"fmt"
+	"math"
+	"sync"
+)
+
+// DefaultRelErr is the relative error bound of rockheat's sketches: bins
+// 2·10⁻⁴ wide in relative terms, 11 513 bins (92 kB) per decade of values.
+const DefaultRelErr = 1e-4
+
+// Sketch is a bounded-memory, mergeable summary of a stream of values, for
+// runs too long to keep every trial. It keeps exact counts in a histogram of
+// logarithmic bins of constant relative width (one for positive values, a
+// mirrored one for negative values, and counters for zeros, infinities and
+// NaNs), the exact minimum and maximum, and exact sums of the values and of
+// their squares.
+//
+// Error bound: with α = RelErr() (at most the relErr asked of NewSketch),
+// every order statistic is reported within α·|x| of its exact value x, so
+// Quantile(q) differs from the exact type-7 quantile of the same values by
+// at most α·((1−f)·|x(lo)| + f·|x(lo+1)|), where x(lo), x(lo+1) and f are
+// the order statistics and fraction of the type-7 formula: at most
+// α·|Quantile| when both order statistics have the same sign. The minimum
+// and maximum are exact, and so are the mean and standard deviation
+// (correctly rounded; the same as Summarize gives for the same values).
+// The bound holds for normal float64 magnitudes (≥ 2.2·10⁻³⁰⁸); subnormal
+// values lose relative precision.
+//
+// Merging: all the state is exact integers and extremes, so Merge is
+// commutative and associative, and a sketch's results are bit-identical
+// whatever the order in which values were added and sketches merged.
+//
+// Memory: 8 bytes per bin, about ln(max/min)/(2α) bins per sign for the
+// range of magnitudes seen (92 kB per decade at α = 10⁻⁴), plus growth
+// slack (typically 25 %, at most 100 %) and 1.7 kB of sums; Bins reports
+// the count. The look-up tables of a resolution (about 150 kB at
+// α = 10⁻⁴) are built once and shared by all sketches.
+//
+// Add costs a table look-up on the bits of the value (no logarithm) and a
+// few integer additions. A Sketch is not safe for concurrent use; give
+// each goroutine its own and merge them. The zero Sketch is not usable;
+// use NewSketch.
+type Sketch struct {
+	tab      *binTable
+	pos, neg bins // counts of positive values and of negative values by |x|
+	zero     uint64
+	posInf   uint64
+	negInf   uint64
+	nan      uint64
+	n        uint64 // values other than NaN
+	min, max float64
+	mom      *moments
+}
+
+// NewSketch returns an empty sketch whose quantiles are within relative
+// error relErr of exact order statistics (see Sketch). Constraint:
+// 1e-6 ≤ relErr ≤ 0.1; NewSketch panics otherwise. Use DefaultRelErr
+// unless there is a reason not to.
+func NewSketch(relErr float64) *Sketch {
+	if !(relErr >= 1e-6 && relErr <= 0.1) {
+		panic(fmt.Sprintf("stats: NewSketch relative error %g outside [1e-6, 0.1]", relErr))
+	}
+	g := (1 + relErr) / (1 - relErr)
+	k := int(math.Ceil(math.Ln2 / math.Log(g)))
+	return &Sketch{
+		tab: tableFor(k),
+		min: math.Inf(1),
+		max: math.Inf(-1),
+		mom: newMoments(),
+	}
+}
+
+// RelErr returns the relative error bound α of the sketch's order
+// statistics, including rounding; it is at most the relErr given to
+// NewSketch (up to ~1e-15).
+func (s *Sketch) RelErr() float64 { return s.tab.relErr }
+
+// N returns the number of values added, NaNs excluded.
+func (s *Sketch) N() int { return int(s.n) }
+
+// Bins returns the number of histogram bins allocated, each of 8 bytes.
+func (s *Sketch) Bins() int { return len(s.pos.counts) + len(s.neg.counts) }
+
+// Add adds the value x. NaN is counted apart and excluded from every
+// statistic, as in Summarize.
+func (s *Sketch) Add(x float64) {
+	switch {
+	case x > 0:
+		if x > math.MaxFloat64 {
+			s.posInf++
+		} else {
+			s.pos.inc(s.tab.index(x))
+		}
+	case x < 0:
+		if x < -math.MaxFloat64 {
+			s.negInf++
+		} else {
+			s.neg.inc(s.tab.index(-x))
+		}
+	case x == 0:
+		s.zero++
+	default:
+		s.nan++
+		return
+	}
+	s.n++
+	if x < s.min {
+		s.min = x
+	}
+	if x > s.max {
+		s.max = x
+	}
+	s.mom.add(x)
+}
+
+// AddSlice adds every value of xs.
+func (s *Sketch) AddSlice(xs []float64) {
+	for _, x := range xs {
+		s.Add(x)
+	}
+}
+
+// Merge adds the values summarised by o to s; o is not changed. The
+// sketches must come from NewSketch with the same relErr; Merge panics
+// otherwise.
+func (s *Sketch) Merge(o *Sketch) {
+	if s.tab != o.tab {
+		panic("stats: Merge of sketches with different relative errors")
+	}
+	s.pos.merge(&o.pos)
+	s.neg.merge(&o.neg)
+	s.zero += o.zero
+	s.posInf += o.posInf
+	s.negInf += o.negInf
+	s.nan += o.nan
+	s.n += o.n
+	if o.min < s.min {
+		s.min = o.min
+	}
+	if o.max > s.max {
+		s.max = o.max
+	}
+	s.mom.merge(o.mom)
+}
+
+// Quantile returns the type-7 q-quantile (see Quantile) of the values
+// added, within the error bound stated for Sketch. It panics if the sketch
+// holds no values or q is outside [0, 1].
+func (s *Sketch) Quantile(q float64) float64 {
+	if s.n == 0 {
+		panic("stats: Quantile of empty sketch")
+	}
+	lo, f := position(int(s.n), q)
+	if f == 0 {
+		return s.at(lo)
+	}
+	return interpolate(s.at(lo), s.at(lo+1), f)
+}
+
+// Exceedance returns the value exceeded with probability p (P90 for
+// p = 0.9), Quantile(1−p); see Exceedance.
+func (s *Sketch) Exceedance(p float64) float64 {
+	if !(p >= 0 && p <= 1) {
+		panic("stats: Exceedance probability outside [0, 1]")
+	}
+	return s.Quantile(1 - p)
+}
+
+// Summary returns the Summary of the values added, as Summarize would for
+// the same values, except that each percentile and interval end is within
+// the sketch's error bound of the exact one; N, NaN, Mean, SD, Min, Max,
+// the interval levels and the mean interval are identical. The interval
+// ends are the order statistics of the same binomial ranks
+// (QuantileBounds). It panics if opt is invalid.
+func (s *Sketch) Summary(opt Options) Summary {
+	level := opt.level()
+	return build(int(s.n), int(s.nan), s.at, s.mom, level)
+}
+
+// at returns the order statistic of 0-based rank k: the exact extreme for
+// k = 0 and k = n−1, otherwise its bin's representative value clamped to
+// [min, max].
+func (s *Sketch) at(k int) float64 {
+	switch uint64(k) {
+	case 0:
+		return s.min
+	case s.n - 1:
+		return s.max
+	}
+	v := s.rank(uint64(k))
+	return math.Min(math.Max(v, s.min), s.max)
+}
+
+// rank returns the representative value of the value of rank r, 0 ≤ r < n.
+func (s *Sketch) rank(r uint64) float64 {
+	if r < s.negInf {
+		return math.Inf(-1)
+	}
+	r -= s.negInf
+	for i := len(s.neg.counts) - 1; i >= 0; i-- {
+		c := s.neg.counts[i]
+		if r < c {
+			return -s.tab.value(s.neg.off + i)
+		}
+		r -= c
+	}
+	if r < s.zero {
+		return 0
+	}
+	r -= s.zero
+	for i, c := range s.pos.counts {
+		if r < c {
+			return s.tab.value(s.pos.off + i)
+		}
+		r -= c
+	}
+	return math.Inf(1)
+}
+
+// bins is a dense run of histogram counts; counts[i] is the count of bin
+// index off+i.
+type bins struct {
+	off    int
+	counts []uint64
+}
+
+func (b *bins) inc(i int) {
+	k := i - b.off
+	if uint(k) >= uint(len(b.counts)) {
+		b.cover(i, i)
+		k = i - b.off
+	}
+	b.counts[k]++
+}
+
+// cover grows b to hold bin indices lo … hi, with slack of a quarter of the
+// current length on a side that grows, so growth is amortised.
+func (b *bins) cover(lo, hi int) {
+	if len(b.counts) == 0 {
+		const first = 256
+		b.off = lo - first/2
+		b.counts = make([]uint64, max(hi-lo+1+first, first))
+		return
+	}
+	curLo, curHi := b.off, b.off+len(b.counts)-1
+	if lo >= curLo && hi <= curHi {
+		return
+	}
+	slack := max(len(b.counts)/4, 64)
+	newLo, newHi := curLo, curHi
+	if lo < curLo {
+		newLo = lo - slack
+	}
+	if hi > curHi {
+		newHi = hi + slack
+	}
+	c := make([]uint64, newHi-newLo+1)
+	copy(c[curLo-newLo:], b.counts)
+	b.off, b.counts = newLo, c
+}
+
+// merge adds the counts of o to b.
+func (b *bins) merge(o *bins) {
+	first, last := -1, -1
+	for i, c := range o.counts {
+		if c != 0 {
+			if first < 0 {
+				first = i
+			}
+			last = i
+		}
+	}
+	if first < 0 {
+		return
+	}
+	b.cover(o.off+first, o.off+last)
+	d := o.off - b.off
+	for i := first; i <= last; i++ {
+		b.counts[i+d] += o.counts[i]
+	}
+}
+
+// binTable maps positive float64 values to logarithmic bins. With x =
+// m·2^e, 1 ≤ m < 2, bin index e·k + j holds the values whose m is in
+// [bound[j], bound[j+1]), bound[j] = 2^(j/k): every bin spans the ratio
+// γ = 2^(1/k). Its representative is the harmonic mean of its ends, which
+// is within (γ−1)/(γ+1) relative error of every value in it.
+type binTable struct {
+	k      int
+	bits   uint      // mantissa bits indexing cell
+	cell   []uint64  // cell[c]: offset of the next bin end in cell c << 20 | j (see newBinTable)
+	multi  bool      // whether a cell may hold more than one bin end
+	bound  []float64 // k+1 bin ends in [1, 2]
+	frac   []uint64  // fraction bits of bound[0 … k−1], then 2^52 for bound[k] = 2
+	rep    []float64 // k representatives
+	relErr float64
+}
+
+var tables sync.Map // k → *binTable; tables are immutable once built
+
+func tableFor(k int) *binTable {
+	if t, ok := tables.Load(k); ok {
+		return t.(*binTable)
+	}
+	t, _ := tables.LoadOrStore(k, newBinTable(k))
+	return t.(*binTable)
+}
+
+func newBinTable(k int) *binTable {
+	t := &binTable{k: k}
+	t.bound = make([]float64, k+1)
+	for j := range k {
+		t.bound[j] = math.Exp2(float64(j) / float64(k))
+	}
+	t.bound[k] = 2
+	t.rep = make([]float64, k)
+	for j := range k {
+		a, b := t.bound[j], t.bound[j+1]
+		r := 2 * a * b / (a + b)
+		t.rep[j] = r
+		t.relErr = math.Max(t.relErr, math.Max((r-a)/a, (b-r)/b))
+	}
+	t.relErr += 4 * epsilon // rounding of the representative and of a scaled value
+	t.frac = make([]uint64, k+1)
+	for j := range k {
+		t.frac[j] = math.Float64bits(t.bound[j]) & fracMask
+	}
+	t.frac[k] = 1 << 52
+	// Cells are the 2^bits equal slices of the fraction bits. With enough
+	// bits a cell is narrower than the narrowest bin and holds at most one
+	// bin end: cell[c] packs the bin j of the cell's first mantissa (20
+	// bits; k < 2^19 for relErr ≥ 1e-6) and above it the offset within the
+	// cell of the end of bin j, or 2^44−1 if bin j extends past the cell (a
+	// cell spans at most 2^43 fraction units, as bits ≥ 9), so one look-up
+	// and one comparison find the bin. Past 16 bits (relErr < 7.6e-6)
+	// cells may hold several ends and index walks frac from j.
+	minWidth := t.bound[1] - t.bound[0]
+	t.bits = 9
+	for t.bits < 16 && math.Ldexp(1, -int(t.bits)) >= minWidth {
+		t.bits++
+	}
+	t.multi = math.Ldexp(1, -int(t.bits)) >= minWidth
+	t.cell = make([]uint64, 1<<t.bits)
+	width := uint64(1) << (52 - t.bits)
+	j := 0
+	for c := range t.cell {
+		start := uint64(c) * width
+		for t.frac[j+1] <= start {
+			j++
+		}
+		off := uint64(1<<44 - 1)
+		if end := t.frac[j+1]; end < start+width {
+			off = end - start
+		}
+		t.cell[c] = off<<20 | uint64(j)
+	}
+	return t
+}
+
+const fracMask = 1<<52 - 1
+
+// index returns the bin index of the positive finite value x.
+func (t *binTable) index(x float64) int {
+	u := math.Float64bits(x)
+	e := int(u >> 52)
+	if e == 0 { // subnormal: scale into the normal range
+		u = math.Float64bits(x * 0x1p64)
+		e = int(u>>52) - 64
+	}
+	e -= 1023
+	f := u & fracMask
+	ent := t.cell[f>>(52-t.bits)]
+	j := int(ent & (1<<20 - 1))
+	if t.multi {
+		// The mantissas in [1, 2) share their exponent, so comparing
+		// fraction bits as integers compares them as numbers.
+		for f >= t.frac[j+1] {
+			j++
+		}
+	} else if f&(1<<(52-t.bits)-1) >= ent>>20 {
+		j++
+	}
+	return e*t.k + j
+}
+
+// value returns the representative value of bin index i.
+func (t *binTable) value(i int) float64 {
+	e := i / t.k
+	j := i - e*t.k
+	if j < 0 {
+		e--
+		j += t.k
+	}
+	return math.Ldexp(t.rep[j], e)
+}

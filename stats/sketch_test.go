@@ -1,0 +1,274 @@
+package stats
+
+import (
+	"math"
+	"math/rand/v2"
+	"reflect"
+	"slices"
+	"testing"
+)
+
+// errBound is the bound stated for Sketch.Quantile: α·((1−f)|x(lo)| + f|x(lo+1)|).
+func errBound(sorted []float64, q, alpha float64) float64 {
+	lo, f := position(len(sorted), q)
+	if f == 0 {
+		return alpha * math.Abs(sorted[lo])
+	}
+	return alpha * ((1-f)*math.Abs(sorted[lo]) + f*math.Abs(sorted[lo+1]))
+}
+
+// TestSketchQuantiles checks the stated error bound against the exact
+// type-7 Quantile of the same values, on 10⁶ lognormal values and on
+// mixed-sign and zero-heavy samples, at the default and a coarse α (at
+// which a bin off by one would exceed the bound).
+func TestSketchQuantiles(t *testing.T) {
+	t.Parallel()
+	withZeros := normal(20000, 0, 1, 4)
+	for i := range withZeros {
+		withZeros[i] = math.Max(withZeros[i], 0) // half zeros
+	}
+	for _, tc := range []struct {
+		name  string
+		x     []float64
+		alpha float64
+	}{
+		{"lognormal 1e6", lognormal(1e6, 40, 1.5, 1), DefaultRelErr},
+		{"lognormal coarse", lognormal(1e5, 0, 2, 2), 0.01},
+		{"normal mixed sign", normal(1e5, 0.3, 1, 3), 0.003},
+		{"half zeros", withZeros, 0.01},
+	} {
+		s := NewSketch(tc.alpha)
+		s.AddSlice(tc.x)
+		if s.RelErr() > tc.alpha*(1+1e-9) {
+			t.Errorf("%s: RelErr %g above the %g asked", tc.name, s.RelErr(), tc.alpha)
+		}
+		sorted := slices.Clone(tc.x)
+		slices.Sort(sorted)
+		for _, q := range []float64{0, 0.01, 0.1, 0.25, 0.5, 0.75, 0.9, 0.99, 1} {
+			got, want := s.Quantile(q), Quantile(sorted, q)
+			if tol := errBound(sorted, q, s.RelErr()); !within(got, want, tol) {
+				t.Errorf("%s: q=%g: sketch %v, exact %v, bound %g", tc.name, q, got, want, tol)
+			}
+		}
+		if got, want := s.Exceedance(0.9), s.Quantile(0.1); got != want {
+			t.Errorf("%s: Exceedance(0.9) %v, Quantile(0.1) %v", tc.name, got, want)
+		}
+	}
+	if got := NewSketchOf(withZeros).Quantile(0.25); got != 0 {
+		t.Errorf("half zeros: Quantile(0.25) = %v, want 0 exactly", got)
+	}
+}
+
+// NewSketchOf is a test shorthand for a default sketch of x.
+func NewSketchOf(x []float64) *Sketch {
+	s := NewSketch(DefaultRelErr)
+	s.AddSlice(x)
+	return s
+}
+
+// TestSketchOrderStatistics checks every order statistic of a sample with
+// both signs, zeros, infinities and a wide range of magnitudes against the
+// exact one: within α relative, and exact at the ends.
+func TestSketchOrderStatistics(t *testing.T) {
+	t.Parallel()
+	x := normal(5000, 0, 1, 5)
+	for i := range x {
+		x[i] = math.Copysign(math.Pow(10, 40*x[i]), x[i]-0.1)
+	}
+	x = append(x, 0, 0, math.Copysign(0, -1), math.Inf(1), math.Inf(-1), math.Inf(-1), math.NaN())
+	s := NewSketch(0.001)
+	s.AddSlice(x)
+	sorted := slices.DeleteFunc(slices.Clone(x), math.IsNaN)
+	slices.Sort(sorted)
+	if s.N() != len(sorted) {
+		t.Fatalf("N = %d, want %d", s.N(), len(sorted))
+	}
+	for k, want := range sorted {
+		got := s.at(k)
+		if !within(got, want, s.RelErr()*math.Abs(want)) && got != want {
+			t.Errorf("rank %d: %v, exact %v", k, got, want)
+		}
+	}
+	if s.at(0) != sorted[0] || s.at(len(sorted)-1) != sorted[len(sorted)-1] {
+		t.Errorf("extremes %v, %v; want %v, %v", s.at(0), s.at(len(sorted)-1), sorted[0], sorted[len(sorted)-1])
+	}
+}
+
+// TestSketchMerge: sketches of the parts, merged in any order or grouping,
+// give a Summary identical, bit for bit, to the sketch of the whole.
+func TestSketchMerge(t *testing.T) {
+	t.Parallel()
+	x := lognormal(200000, 30, 2, 6)
+	x[3] = math.NaN()
+	whole := NewSketchOf(x)
+	want := whole.Summary(DefaultOptions)
+	cuts := []int{0, 17, 5000, 5001, 90000, 150000, len(x)}
+	parts := make([]*Sketch, len(cuts)-1)
+	for i := range parts {
+		parts[i] = NewSketchOf(x[cuts[i]:cuts[i+1]])
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	orders := [][]int{{0, 1, 2, 3, 4, 5}, {5, 4, 3, 2, 1, 0}, rng.Perm(6), rng.Perm(6)}
+	for _, order := range orders {
+		m := NewSketch(DefaultRelErr)
+		for _, i := range order {
+			m.Merge(parts[i])
+		}
+		if got := m.Summary(DefaultOptions); !sameSummary(got, want) {
+			t.Errorf("merge order %v: %+v\nwant %+v", order, got, want)
+		}
+	}
+	// Tree: ((0+1)+(2+3))+(4+5), built into the parts' own sketches.
+	a, b, c := NewSketch(DefaultRelErr), NewSketch(DefaultRelErr), NewSketch(DefaultRelErr)
+	a.Merge(parts[0])
+	a.Merge(parts[1])
+	b.Merge(parts[2])
+	b.Merge(parts[3])
+	c.Merge(parts[4])
+	c.Merge(parts[5])
+	b.Merge(a)
+	c.Merge(b)
+	if got := c.Summary(DefaultOptions); !sameSummary(got, want) {
+		t.Errorf("tree merge: %+v\nwant %+v", got, want)
+	}
+	for _, q := range []float64{0.01, 0.1, 0.5, 0.9, 0.99} {
+		if c.Quantile(q) != whole.Quantile(q) {
+			t.Errorf("q=%g: merged %v, whole %v", q, c.Quantile(q), whole.Quantile(q))
+		}
+	}
+}
+
+func sameSummary(a, b Summary) bool {
+	ea, eb := a.Warnings, b.Warnings
+	a.Warnings, b.Warnings = nil, nil
+	return reflect.DeepEqual(a, b) && len(ea) == len(eb)
+}
+
+// TestSketchSummary: the sketch's Summary matches Summarize exactly in
+// count, moments, extremes and levels (same exact sums, same ranks), and
+// within the error bound in percentiles and interval ends.
+func TestSketchSummary(t *testing.T) {
+	t.Parallel()
+	x := lognormal(50000, 35, 1, 7)
+	s := NewSketchOf(x)
+	got := s.Summary(DefaultOptions)
+	want := Summarize(slices.Clone(x), DefaultOptions)
+	if got.N != want.N || got.Mean != want.Mean || got.SD != want.SD || got.Min != want.Min ||
+		got.Max != want.Max || got.MeanCI != want.MeanCI {
+		t.Errorf("sketch %+v\nexact %+v", got, want)
+	}
+	a := s.RelErr()
+	for _, c := range []struct {
+		what      string
+		got, want Interval
+		gv, wv    float64
+	}{
+		{"P90", got.P90CI, want.P90CI, got.P90, want.P90},
+		{"P50", got.P50CI, want.P50CI, got.P50, want.P50},
+		{"P10", got.P10CI, want.P10CI, got.P10, want.P10},
+	} {
+		if c.got.Level != c.want.Level || !within(c.got.Lo, c.want.Lo, a*c.want.Lo) ||
+			!within(c.got.Hi, c.want.Hi, a*c.want.Hi) || !within(c.gv, c.wv, a*c.wv) {
+			t.Errorf("%s: sketch %v %+v, exact %v %+v", c.what, c.gv, c.got, c.wv, c.want)
+		}
+	}
+}
+
+// TestSketchDegenerate: an all-equal sample is summarised exactly.
+func TestSketchDegenerate(t *testing.T) {
+	t.Parallel()
+	for _, v := range []float64{3.7, -2.5e18, 0} {
+		x := make([]float64, 1000)
+		for i := range x {
+			x[i] = v
+		}
+		s := NewSketchOf(x).Summary(DefaultOptions)
+		for _, got := range []float64{s.P90, s.P50, s.P10, s.Mean, s.Min, s.Max,
+			s.P90CI.Lo, s.P90CI.Hi, s.P50CI.Lo, s.P10CI.Hi} {
+			if got != v {
+				t.Errorf("all %v: summary value %v in %+v", v, got, s)
+				break
+			}
+		}
+		if s.SD != 0 {
+			t.Errorf("all %v: SD %v, want 0", v, s.SD)
+		}
+	}
+}
+
+// TestSketchEmpty: an empty sketch summarises to N = 0 with a warning, and
+// Quantile panics (programmer error).
+func TestSketchEmpty(t *testing.T) {
+	t.Parallel()
+	s := NewSketch(DefaultRelErr)
+	s.Add(math.NaN())
+	sum := s.Summary(DefaultOptions)
+	if sum.N != 0 || sum.NaN != 1 || len(sum.Warnings) != 2 {
+		t.Errorf("empty sketch: %+v", sum)
+	}
+	defer func() {
+		if recover() == nil {
+			t.Errorf("Quantile of empty sketch did not panic")
+		}
+	}()
+	s.Quantile(0.5)
+}
+
+// TestSketchMergeMismatch: sketches of different resolutions cannot merge.
+func TestSketchMergeMismatch(t *testing.T) {
+	t.Parallel()
+	defer func() {
+		if recover() == nil {
+			t.Errorf("Merge of different relErr did not panic")
+		}
+	}()
+	NewSketch(1e-4).Merge(NewSketch(1e-3))
+}
+
+// TestSketchMemory checks the stated memory: about ln(max/min)/(2α) bins
+// for the range of values, plus at most 100 % slack and the first block.
+func TestSketchMemory(t *testing.T) {
+	t.Parallel()
+	x := lognormal(100000, 40, 1, 8)
+	s := NewSketchOf(x)
+	need := math.Log(s.Summary(DefaultOptions).Max/s.Summary(DefaultOptions).Min) / (2 * DefaultRelErr)
+	t.Logf("%d bins for a range needing %.0f", s.Bins(), need)
+	if b := float64(s.Bins()); b < need || b > 2*need+512 {
+		t.Errorf("%d bins for a range needing %.0f", s.Bins(), need)
+	}
+}
+
+// TestBinIndex checks the bin look-up against its definition, bin e·k + j
+// holding m·2^e with bound[j] ≤ m < bound[j+1], on random values and on
+// the bin ends themselves, for the one-comparison tables and the walking
+// table of the finest resolution.
+func TestBinIndex(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, alpha := range []float64{0.1, 0.01, DefaultRelErr, 1e-6} {
+		tab := NewSketch(alpha).tab
+		check := func(x float64) {
+			i := tab.index(x)
+			e := i / tab.k
+			j := i - e*tab.k
+			if j < 0 {
+				e, j = e-1, j+tab.k
+			}
+			m, fe := math.Frexp(x) // x = m·2^fe, m in [0.5, 1)
+			m, fe = 2*m, fe-1
+			if fe != e || m < tab.bound[j] || m >= tab.bound[j+1] {
+				t.Fatalf("α=%g: x=%v in bin (e=%d, j=%d) = [%v, %v)·2^e; mantissa %v·2^%d", alpha, x, e, j, tab.bound[j], tab.bound[j+1], m, fe)
+			}
+		}
+		for range 20000 {
+			check(math.Ldexp(1+rng.Float64(), rng.IntN(200)-100))
+		}
+		for j := 1; j < tab.k; j += max(1, tab.k/5000) {
+			b := tab.bound[j]
+			check(math.Ldexp(b, 7))
+			check(math.Ldexp(math.Nextafter(b, 0), -3))
+		}
+		check(5e-324) // subnormal
+		check(math.MaxFloat64)
+	}
+}
