@@ -71,10 +71,17 @@ type Input struct {
 	Fixed bool
 }
 
+// CurvePoints is the number of points of Output.Curve.
+const CurvePoints = 101
+
 // Output is the summary of one model output. Figures are in Spec.Unit.
 type Output struct {
 	Spec    OutputSpec
 	Summary stats.Summary
+	// Curve holds the output's quantiles at non-exceedance probabilities
+	// 0, 0.01, ..., 1 (Curve[k] is exceeded with probability 1 − k/100,
+	// Curve[10] is the P90): the points of an exceedance curve.
+	Curve []float64
 }
 
 // Influence is one input's effect on one output.
@@ -112,12 +119,15 @@ func (s *Samples) Value(j, i int) float64 {
 
 // Result is what a run found.
 type Result struct {
-	Title    string
-	Path     string
-	Kind     string
-	Trials   int // trials run
-	Seed     uint64
-	Sampling string // "lhs" or "random"
+	Title string
+	Path  string
+	Kind  string
+	// Fluid and Conversion are the [model] fluid property source and
+	// conversion route (scenarios.Fluid*, scenarios.Conversion*).
+	Fluid, Conversion string
+	Trials            int // trials run
+	Seed              uint64
+	Sampling          string // "lhs" or "random"
 	// PerBatch is true when the Latin hypercube was stratified batch by
 	// batch rather than over the whole run.
 	PerBatch bool
@@ -209,7 +219,7 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 
 	r := &run{s: s, opt: opt, m: modelFor(s.Model), workers: workers, consts: map[string]float64{}}
 	r.specs = r.m.outputs()
-	res := &Result{Title: s.Title, Path: s.Path, Kind: s.Model.Kind, Seed: seed, Sampling: s.Sampling.String(),
+	res := &Result{Title: s.Title, Path: s.Path, Kind: s.Model.Kind, Fluid: s.Model.Fluid, Conversion: s.Model.Conversion, Seed: seed, Sampling: s.Sampling.String(),
 		Confidence: conf, Streaming: streaming, Precision: opt.Precision}
 	for _, in := range s.Inputs {
 		res.Inputs = append(res.Inputs, Input{Key: in.Key.Name, Unit: in.Key.Unit, Doc: in.Key.Doc, Dist: in.Dist.String(), Fixed: in.Fixed})
@@ -266,7 +276,7 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 	if streaming {
 		total := mergeSketches(r.sketches)
 		for j, sp := range r.specs {
-			res.Outputs[j] = Output{Spec: sp, Summary: total[j].Summary(stat)}
+			res.Outputs[j] = Output{Spec: sp, Summary: total[j].Summary(stat), Curve: curve(total[j].Quantile)}
 		}
 	} else {
 		parallel(len(r.specs), workers, func(j int) {
@@ -274,7 +284,9 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 			if opt.KeepSamples {
 				col = append([]float64(nil), col...)
 			}
-			res.Outputs[j] = Output{Spec: r.specs[j], Summary: stats.Summarize(col, stat)}
+			sum := stats.Summarize(col, stat) // sorts col
+			res.Outputs[j] = Output{Spec: r.specs[j], Summary: sum,
+				Curve: curve(func(q float64) float64 { return stats.Quantile(col[sum.NaN:], q) })}
 		})
 	}
 	if opt.Precision > 0 && !res.Converged {
@@ -539,6 +551,15 @@ func (r *run) samples() *Samples {
 		smp.Consts = append(smp.Consts, 0)
 	}
 	return smp
+}
+
+// curve returns quantile(k/100) for k = 0, ..., 100.
+func curve(quantile func(q float64) float64) []float64 {
+	c := make([]float64, CurvePoints)
+	for k := range c {
+		c[k] = quantile(float64(k) / (CurvePoints - 1))
+	}
+	return c
 }
 
 func columns(k, n int) [][]float64 {

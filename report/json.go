@@ -56,9 +56,29 @@ func (o object) MarshalJSON() ([]byte, error) {
 	return b.Bytes(), nil
 }
 
+// yearFigures is one point of a group of outputs reported over time.
+type yearFigures struct {
+	Year float64 `json:"year"`
+	jsonFigures
+}
+
+// outputsObject lays out the outputs in model order; outputs of a group
+// (the hot-rock power at each report year) become one list under the
+// group's name, each entry with its year.
 func outputsObject(outs []rockheat.Output, level float64) object {
 	var o object
-	for _, out := range outs {
+	for i := 0; i < len(outs); i++ {
+		out := outs[i]
+		if g := out.Spec.Group; g != "" {
+			var list []yearFigures
+			for ; i < len(outs) && outs[i].Spec.Group == g; i++ {
+				list = append(list, yearFigures{outs[i].Spec.Year, figures(outs[i], level)})
+			}
+			i--
+			o.keys = append(o.keys, g)
+			o.values = append(o.values, list)
+			continue
+		}
 		o.keys = append(o.keys, out.Spec.Name)
 		o.values = append(o.values, figures(out, level))
 	}
@@ -121,6 +141,8 @@ type jsonPrecision struct {
 type jsonResult struct {
 	Title          string         `json:"title"`
 	Kind           string         `json:"kind"`
+	Fluid          string         `json:"fluid"`
+	Conversion     string         `json:"conversion"`
 	Trials         int            `json:"trials"`
 	Seed           uint64         `json:"seed"`
 	Sampling       string         `json:"sampling"`
@@ -140,7 +162,7 @@ type jsonResult struct {
 // with unit, p90, p50, p10, mean, sd, min, max and confidence intervals),
 // zero_heat_trials, inputs, warnings and the caution.
 func JSON(w io.Writer, r *rockheat.Result) error {
-	jr := jsonResult{Title: r.Title, Kind: r.Kind, Trials: r.Trials, Seed: r.Seed, Sampling: r.Sampling,
+	jr := jsonResult{Title: r.Title, Kind: r.Kind, Fluid: r.Fluid, Conversion: r.Conversion, Trials: r.Trials, Seed: r.Seed, Sampling: r.Sampling,
 		Convention: Convention, Outputs: outputsObject(r.Outputs, r.Confidence), ZeroHeatTrials: r.ZeroHeatTrials,
 		Sensitivity: sensitivityObject(r.Sensitivity),
 		Method:      jsonMethod{Percentiles: "exact", LHSPerBatch: r.PerBatch, SensitivityTrials: r.SensitivityN},

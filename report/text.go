@@ -55,11 +55,15 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	table(&b, rows, "lrrrrl")
 	fmt.Fprintf(&b, "\nRanges in brackets are %.0f%% distribution-free confidence intervals of each percentile\n(order statistics, binomial; Hahn & Meeker 1991): how far the figure could move with more trials.\n", 100*level)
 	wrap(&b, Convention, 100)
+	what := "reservoir temperature at or below the reference temperature"
+	if r.Kind == "hot-rock" {
+		what = "no rock at or above the minimum useful temperature between the top and the maximum depth"
+	}
 	if r.ZeroHeatTrials > 0 {
-		fmt.Fprintf(&b, "%d of %d trials (%.2f%%) had no heat above the reference temperature and count as zero.\n",
-			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials))
+		fmt.Fprintf(&b, "%d of %d trials (%.2f%%) had %s; they hold no heat and count as zero.\n",
+			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials), what)
 	} else {
-		fmt.Fprintf(&b, "No trial had its temperature at or below the reference temperature.\n")
+		fmt.Fprintf(&b, "No trial had %s.\n", what)
 	}
 
 	if r.Streaming {
@@ -85,7 +89,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	table(&b, in, "lll")
 
 	b.WriteString("\nMethod\n")
-	wrap(&b, methodText(r.Kind), 100)
+	wrap(&b, methodText(r), 100)
 	for _, wmsg := range r.Warnings {
 		wrap(&b, "WARNING: "+wmsg, 100)
 	}
@@ -141,16 +145,37 @@ func modelLine(kind string) string {
 	switch kind {
 	case "reservoir":
 		return "reservoir (volumetric heat in place)"
+	case "hot-rock":
+		return "hot-rock (conductive column, heat mined by circulated water)"
 	}
 	return kind
 }
 
-func methodText(kind string) string {
-	switch kind {
+func methodText(r *rockheat.Result) string {
+	var fluid string
+	if r.Fluid == "if97" {
+		fluid = " Fluid density and heat capacity: IAPWS-IF97 region 1 liquid at the sampled temperature and pressure" +
+			" (saturated liquid where the pressure is below saturation)."
+	}
+	switch r.Kind {
 	case "reservoir":
-		return "Volumetric heat in place (Muffler & Cataldi 1978; USGS Circular 790): Q = A·h·[(1−φ)·ρr·cr + φ·ρf·cf]·(Tr − Tref); " +
-			"recoverable heat Qr = R·Q; mean thermal power Qr/L; electric capacity η·Qr/(F·L), " +
-			"with R recovery factor, η conversion efficiency, F capacity factor and L plant life (years of 365.25 days)."
+		s := "Volumetric heat in place (Muffler & Cataldi 1978; USGS Circular 790): Q = A·h·[(1−φ)·ρr·cr + φ·ρf·cf]·(Tr − Tref); " +
+			"recoverable heat Qr = R·Q; mean thermal power Qr/L; "
+		if r.Conversion == "exergy" {
+			s += "electric capacity by the exergy route Pe = ηu·W/(F·L), W = m·[(h − h0) − T0·(s − s0)], m = Qr/(h − h0), " +
+				"with the wellhead fluid saturated liquid at Tr and the dead state liquid at Tref and 1 atm " +
+				"(USGS Circular 790; Williams et al. 2008; IAPWS-IF97 properties), ηu utilization efficiency, "
+		} else {
+			s += "electric capacity η·Qr/(F·L), with η conversion efficiency, "
+		}
+		return s + "R recovery factor, F capacity factor and L plant life (years of 365.25 days)." + fluid
+	case "hot-rock":
+		return "Conductive rock column T(z) = Ts + G·z (or piecewise layers). Useful heat above the minimum useful temperature " +
+			"Tmin between z1, where the rock reaches Tmin (or the top depth if deeper), and the maximum depth z2: " +
+			"E0 = A·ρr·cr·∫(T − Tmin)dz, = A·ρr·cr·G·(z2 − z1)²/2 for one gradient. A circulated water flow V̇ mines it " +
+			"exponentially (heat-mining model, Armstead & Tester 1987): τ = ρr·cr·(z2 − z1)/((V̇/A)·ρw·cw), " +
+			"P(t) = (E0/τ)·e^(−t/τ); heat mined over the life L: E0·(1 − e^(−L/τ)); mean thermal power over the life " +
+			"= that / L; electric capacity = η·mean thermal power / F." + fluid
 	}
 	return ""
 }

@@ -120,6 +120,14 @@ type Truncated struct {
 	flo    float64 // F(lo)
 	width  float64 // F(hi) − F(lo)
 	name   string
+	label  string // replaces String's text when set
+}
+
+// WithLabel returns t described by label in String, e.g. the parameters
+// the user gave rather than the derived ones.
+func (t Truncated) WithLabel(label string) Truncated {
+	t.label = label
+	return t
 }
 
 type cdfQuantiler interface {
@@ -169,6 +177,9 @@ func (t Truncated) Support() (lo, hi float64) { return t.lo, t.hi }
 func (t Truncated) Outside(lo, hi float64) float64 { return outside(t.CDF, lo, hi) }
 
 func (t Truncated) String() string {
+	if t.label != "" {
+		return t.label
+	}
 	s := t.name
 	if !math.IsInf(t.lo, -1) {
 		s += fmt.Sprintf(" min %g", t.lo)

@@ -126,13 +126,13 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 		switch {
 		case p.method == Random:
 			for i := range col {
-				col[i] = d.Quantile(rng.Float64())
+				col[i] = d.Quantile(open01(rng))
 			}
 		case p.perm != nil:
 			strata := p.perm[j][start : start+n]
 			inv := 1 / float64(p.trials)
 			for i := range col {
-				col[i] = d.Quantile((float64(strata[i]) + rng.Float64()) * inv)
+				col[i] = d.Quantile((float64(strata[i]) + open01(rng)) * inv)
 			}
 		default: // Latin hypercube within this batch
 			if local == nil {
@@ -141,7 +141,7 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 			permutation(rng, local)
 			inv := 1 / float64(n)
 			for i := range col {
-				col[i] = d.Quantile((float64(local[i]) + rng.Float64()) * inv)
+				col[i] = d.Quantile((float64(local[i]) + open01(rng)) * inv)
 			}
 		}
 	}
@@ -189,4 +189,11 @@ func scoresCorrelation(target *mat.SymDense) *mat.SymDense {
 		return target
 	}
 	return adj
+}
+
+// open01 returns a uniform draw from the open interval (0, 1): the
+// midpoints of the 2^53 equal cells of [0, 1). It never returns 0 or 1,
+// so no draw lands on an infinite tail or on a distribution's open limit.
+func open01(rng *rand.Rand) float64 {
+	return (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53
 }

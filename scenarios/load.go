@@ -393,8 +393,23 @@ func (c *checker) input(k Key, v any) (Input, bool) {
 		c.add(key, "%v", err)
 		return in, false
 	}
+	if t, ok := d.(sampler.Truncated); ok {
+		d = t.WithLabel(label(name, params, vals))
+	}
 	in.Dist = d
 	return in, true
+}
+
+// label describes a distribution by the parameters the file gives, in
+// the order of distParams.
+func label(name string, params [2][]string, vals map[string]float64) string {
+	var parts []string
+	for _, p := range append(append([]string{}, params[0]...), params[1]...) {
+		if v, ok := vals[p]; ok {
+			parts = append(parts, fmt.Sprintf("%s %g", p, v))
+		}
+	}
+	return name + "(" + strings.Join(parts, ", ") + ")"
 }
 
 func build(name string, v map[string]float64) (sampler.Distribution, error) {
@@ -450,6 +465,9 @@ const tailMass = 1e-6
 // probability.
 func fitDomain(k Key, d sampler.Distribution, name string, v map[string]float64) (sampler.Distribution, error) {
 	lo, hi := d.Support()
+	if (k.LoOpen && !isUnbounded(name) && lo == k.Lo) || (k.HiOpen && !isUnbounded(name) && hi == k.Hi) {
+		return nil, fmt.Errorf("%s reaches the limit %s of %s, which it must stay inside; keep min and max strictly within it", d, rangeText(k), k.Doc)
+	}
 	if lo >= k.Lo && hi <= k.Hi {
 		return d, nil
 	}

@@ -34,6 +34,22 @@
 // "Statistical Intervals", §5.2). They hold for any continuous output
 // distribution and are conservative for discrete ones.
 //
+// # Long runs
+//
+// A Sketch summarises any number of trials in bounded memory: a histogram
+// of logarithmic bins of constant relative width gives every order
+// statistic within a stated relative error (DefaultRelErr = 10⁻⁴), and
+// exact integer sums give the mean and standard deviation exactly. Its
+// state is made of exact counts, so sketches merge in any order with
+// bit-identical results.
+//
+// # Sensitivity
+//
+// RankSensitivity ranks the inputs of a model by Spearman's rank
+// correlation with an output, with the normalised squared coefficients as
+// approximate variance shares (meaningful for near-additive monotone
+// models).
+//
 // # Values and units
 //
 // The functions attach no unit to the values: results are in the unit of

@@ -9,8 +9,8 @@ import (
 
 // wideFloats returns n finite values of random sign and of magnitudes
 // spread over most of the float64 range, subnormals included.
-func wideFloats(n int, seed uint64) []float64 {
-	rng := rand.New(rand.NewPCG(seed, 7))
+func wideFloats(n int, stream uint64) []float64 {
+	rng := rand.New(rand.NewPCG(stream, 7))
 	x := make([]float64, n)
 	for i := range x {
 		v := math.Ldexp(1+rng.Float64(), rng.IntN(2000)-1070)

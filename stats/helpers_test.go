@@ -6,9 +6,9 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
-// lognormal returns n draws of LogNormal(mu, sigma) from a seeded stream.
-func lognormal(n int, mu, sigma float64, seed uint64) []float64 {
-	d := distuv.LogNormal{Mu: mu, Sigma: sigma, Src: rand.New(rand.NewPCG(seed, 2))}
+// lognormal returns n draws of LogNormal(mu, sigma) from a fixed random stream.
+func lognormal(n int, mu, sigma float64, stream uint64) []float64 {
+	d := distuv.LogNormal{Mu: mu, Sigma: sigma, Src: rand.New(rand.NewPCG(stream, 2))}
 	x := make([]float64, n)
 	for i := range x {
 		x[i] = d.Rand()
@@ -16,9 +16,9 @@ func lognormal(n int, mu, sigma float64, seed uint64) []float64 {
 	return x
 }
 
-// normal returns n draws of Normal(mu, sigma) from a seeded stream.
-func normal(n int, mu, sigma float64, seed uint64) []float64 {
-	d := distuv.Normal{Mu: mu, Sigma: sigma, Src: rand.New(rand.NewPCG(seed, 3))}
+// normal returns n draws of Normal(mu, sigma) from a fixed random stream.
+func normal(n int, mu, sigma float64, stream uint64) []float64 {
+	d := distuv.Normal{Mu: mu, Sigma: sigma, Src: rand.New(rand.NewPCG(stream, 3))}
 	x := make([]float64, n)
 	for i := range x {
 		x[i] = d.Rand()

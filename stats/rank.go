@@ -70,10 +70,10 @@ func Spearman(x, y []float64) float64 {
 // returned by Ranks, which is Spearman's coefficient of the ranked
 // values; it is 0 when either column is constant. Because ranks are
 // multiples of ½ with known mean (n+1)/2, the sums are formed exactly in
-// integer arithmetic: the result is the correctly computed ratio, up to a
-// few rounding errors, and independent of the order of the trials. It
-// panics if the lengths differ or a value is not a rank of a column of
-// that length.
+// integer arithmetic, so the result is accurate to a few rounding errors
+// and independent of the order of the trials; it is exactly ±1 for equal
+// or reversed ranks. It panics if the lengths differ or a value is not a
+// rank of a column of that length.
 func CorrelateRanks(rx, ry []float64) float64 {
 	n := len(rx)
 	if len(ry) != n {

@@ -98,8 +98,8 @@ func TestSpearmanReference(t *testing.T) {
 
 // bivariate returns n draws of a standard bivariate normal pair with
 // Pearson correlation rho.
-func bivariate(n int, rho float64, seed uint64) (x, y []float64) {
-	rng := rand.New(rand.NewPCG(seed, 11))
+func bivariate(n int, rho float64, stream uint64) (x, y []float64) {
+	rng := rand.New(rand.NewPCG(stream, 11))
 	x, y = make([]float64, n), make([]float64, n)
 	c := math.Sqrt(1 - rho*rho)
 	for i := range x {
@@ -123,16 +123,16 @@ func spearmanTol(rs float64, n int) float64 {
 }
 
 // TestSpearmanBivariateNormal checks the sample coefficient against the
-// population value (6/π)·asin(ρ/2) over several seeds.
+// population value (6/π)·asin(ρ/2) over several streams.
 func TestSpearmanBivariateNormal(t *testing.T) {
 	t.Parallel()
 	const n = 200000
 	for _, rho := range []float64{0.3, 0.8, -0.6} {
 		want := spearmanNormal(rho)
-		for seed := range uint64(3) {
-			x, y := bivariate(n, rho, seed)
+		for stream := range uint64(3) {
+			x, y := bivariate(n, rho, stream)
 			if got := Spearman(x, y); !within(got, want, spearmanTol(want, n)) {
-				t.Errorf("rho=%g seed %d: Spearman %.5f, (6/π)asin(ρ/2) = %.5f ± %.5f", rho, seed, got, want, spearmanTol(want, n))
+				t.Errorf("rho=%g stream %d: Spearman %.5f, (6/π)asin(ρ/2) = %.5f ± %.5f", rho, stream, got, want, spearmanTol(want, n))
 			}
 		}
 	}

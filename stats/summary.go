@@ -84,7 +84,8 @@ type Summary struct {
 // original order. NaN values are left out of every statistic and counted
 // in Summary.NaN, with a warning. An empty x (or one of NaNs only) gives a
 // Summary with N = 0, NaN statistics and a warning. Summarize takes O(n)
-// time (radix sort) and O(n) scratch memory. It panics if opt is invalid.
+// time (radix sort) and 16 bytes of scratch memory per value. It panics if
+// opt is invalid.
 func Summarize(x []float64, opt Options) Summary {
 	level := opt.level()
 	nan := 0

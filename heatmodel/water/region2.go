@@ -103,17 +103,19 @@ var r2 = func() []gibbsTerm {
 // J(J−1) and IJ, with y = τ − 0.5: γʳ, π·γʳπ, π²·γʳππ, y·γʳτ, y²·γʳττ and
 // π·y·γʳπτ.
 func residual2(pi, y float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
+	// Power tables built by running products kept in registers.
 	var pp [r2MaxI + 1]float64
-	pp[0] = 1
-	for k := 1; k <= r2MaxI; k++ {
-		pp[k] = pp[k-1] * pi
+	for k, v := 0, 1.0; k <= r2MaxI; k++ {
+		pp[k] = v
+		v *= pi
 	}
 	var py [r2MaxJ + 1]float64
-	py[0] = 1
-	for k := 1; k <= r2MaxJ; k++ {
-		py[k] = py[k-1] * y
+	for k, v := 0, 1.0; k <= r2MaxJ; k++ {
+		py[k] = v
+		v *= y
 	}
-	for _, t := range r2 {
+	for k := range r2 {
+		t := &r2[k]
 		v := pp[t.i] * py[t.j]
 		s += t.n * v
 		sI += t.nI * v

@@ -1,0 +1,128 @@
+package scenarios
+
+import (
+	"errors"
+	"strings"
+	"testing"
+)
+
+const hotRock = `
+title = "Hot rock test"
+[model]
+kind = "hot-rock"
+report_years = [0, 15, 30]
+[inputs]
+area_km2 = { dist = "uniform", min = 2, max = 4 }
+surface_temp_c = 12
+gradient_c_per_km = { dist = "uniform", min = 28, max = 36 }
+min_useful_temp_c = 140
+max_depth_km = { dist = "uniform", min = 5, max = 6 }
+rock_density_kg_m3 = 2650
+rock_heat_capacity_j_kgk = { dist = "uniform", min = 850, max = 950 }
+flow_per_area_m3_s_km2 = { dist = "uniform", min = 0.3, max = 0.7 }
+fluid_density_kg_m3 = 1000
+fluid_heat_capacity_j_kgk = 4180
+conversion_efficiency = 0.11
+capacity_factor = 0.9
+life_years = 30
+`
+
+func TestParseHotRock(t *testing.T) {
+	t.Parallel()
+	s, err := Parse("hr.toml", []byte(hotRock))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Model.Kind != KindHotRock || len(s.Model.ReportYears) != 3 || s.Model.ReportYears[1] != 15 {
+		t.Errorf("model = %+v", s.Model)
+	}
+	if top, ok := s.Input("top_depth_km"); !ok || top.Given || top.Dist.Quantile(0.5) != 0 {
+		t.Errorf("top_depth_km default = %+v", top)
+	}
+	layered := strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+		"[[layers]]\nbottom_km = 2\ngradient_c_per_km = 40\n[[layers]]\nbottom_km = 8\ngradient_c_per_km = 25\n"
+	s, err = Parse("hr.toml", []byte(layered))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !s.Model.Layered || len(s.Model.Layers) != 2 || s.Model.Layers[1].GradientCPerKm != 25 {
+		t.Errorf("layers = %+v", s.Model)
+	}
+	if _, ok := s.Input("gradient_c_per_km"); ok {
+		t.Error("a layered scenario keeps gradient_c_per_km")
+	}
+}
+
+func TestModelProblems(t *testing.T) {
+	t.Parallel()
+	withCorr := func(c string) string { return good + "\n" + c }
+	cases := []struct {
+		name string
+		src  string
+		want []string
+	}{
+		{"exergy for hot rock", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\nconversion = \"exergy\"", 1),
+			[]string{"model.conversion", "efficiency"}},
+		{"report years out of order", strings.Replace(hotRock, "[0, 15, 30]", "[0, 30, 15]", 1), []string{"model.report_years", "increasing"}},
+		{"report years for reservoir", strings.Replace(good, `kind = "reservoir"`, "kind = \"reservoir\"\nreport_years = [1]", 1), []string{"model.report_years", "hot-rock"}},
+		{"zero gradient", strings.Replace(hotRock, "min = 28, max = 36", "min = 0, max = 36", 1), []string{"inputs.gradient_c_per_km", "limit"}},
+		{"negative gradient", strings.Replace(hotRock, "min = 28, max = 36", "min = -5, max = 36", 1), []string{"inputs.gradient_c_per_km", "outside the valid range"}},
+		{"zero flow", strings.Replace(hotRock, "min = 0.3, max = 0.7", "min = 0, max = 0.7", 1), []string{"inputs.flow_per_area_m3_s_km2"}},
+		{"too shallow for any heat", strings.Replace(hotRock, "min = 5, max = 6 }", "min = 1, max = 3 }", 1), []string{"inputs.max_depth_km", "no trial has useful heat"}},
+		{"layers out of order", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n[[layers]]\nbottom_km = 2\ngradient_c_per_km = 25\n",
+			[]string{"layers", "layer 2", "bottom 2 km"}},
+		{"layers and gradient", hotRock + "[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n", []string{"inputs.gradient_c_per_km", "remove it or the layers"}},
+		{"layer gradient zero", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 0\n", []string{"layers", "gradient"}},
+		{"if97 without pressure", strings.Replace(strings.Replace(good, "fluid_density_kg_m3 = 850\nfluid_heat_capacity_j_kgk = 4600\n", "", 1),
+			`kind = "reservoir"`, "kind = \"reservoir\"\nfluid = \"if97\"", 1), []string{"reservoir_pressure_mpa", "depth_m"}},
+		{"if97 with both", strings.Replace(strings.Replace(good, "fluid_density_kg_m3 = 850\nfluid_heat_capacity_j_kgk = 4600\n", "reservoir_pressure_mpa = 10\ndepth_m = 1000\n", 1),
+			`kind = "reservoir"`, "kind = \"reservoir\"\nfluid = \"if97\"", 1), []string{"inputs.depth_m", "not both"}},
+		{"if97 too hot", strings.Replace(strings.Replace(strings.Replace(good, "fluid_density_kg_m3 = 850\nfluid_heat_capacity_j_kgk = 4600\n", "reservoir_pressure_mpa = 20\n", 1),
+			`kind = "reservoir"`, "kind = \"reservoir\"\nfluid = \"if97\"", 1), "mean = 235, sd = 12, min = 200", "mean = 340, sd = 12, min = 200", 1),
+			[]string{"inputs.reservoir_temp_c", "350 °C"}},
+		{"correlation with fixed input", withCorr("[[correlations]]\ninputs = [\"porosity\", \"rock_density_kg_m3\"]\nrank = -0.6\n"),
+			[]string{"correlations[1]", "rock_density_kg_m3", "fixed"}},
+		{"correlation with unknown input", withCorr("[[correlations]]\ninputs = [\"porosity\", \"porosty\"]\nrank = -0.6\n"),
+			[]string{"correlations[1]", "porosty", `did you mean "porosity"`}},
+		{"correlation out of range", withCorr("[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\nrank = 1.5\n"),
+			[]string{"correlations"}},
+		{"correlations not positive definite", withCorr("[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\nrank = 0.9\n" +
+			"[[correlations]]\ninputs = [\"area_km2\", \"thickness_m\"]\nrank = 0.9\n" +
+			"[[correlations]]\ninputs = [\"porosity\", \"thickness_m\"]\nrank = -0.9\n"),
+			[]string{"correlations", "porosity", "thickness_m"}},
+		{"correlation missing rank", withCorr("[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\n"), []string{"correlations[1]", "rank"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			t.Parallel()
+			_, err := Parse("x.toml", []byte(c.src))
+			var ps Problems
+			if !errors.As(err, &ps) {
+				t.Fatalf("err = %v, want Problems", err)
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("message %q lacks %q", err, w)
+				}
+			}
+		})
+	}
+}
+
+func TestCorrelationMatrix(t *testing.T) {
+	t.Parallel()
+	s, err := Parse("x.toml", []byte(good+"\n[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\nrank = -0.4\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Correlation == nil {
+		t.Fatal("no correlation matrix")
+	}
+	// Sampled inputs in order: area_km2 (0), thickness_m, reservoir_temp_c,
+	// porosity (3), ...
+	if got := s.Correlation.At(0, 3); got != -0.4 {
+		t.Errorf("matrix(area, porosity) = %g, want -0.4", got)
+	}
+}
