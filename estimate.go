@@ -142,8 +142,10 @@ type Result struct {
 	Precision float64
 	Converged bool
 
-	Inputs  []Input
-	Outputs []Output
+	Inputs []Input
+	// Correlations are the target rank correlations among the inputs.
+	Correlations []scenarios.Correlation
+	Outputs      []Output
 	// Sensitivity has one entry per output, from the first
 	// SensitivityTrials trials (SensitivityN of them).
 	Sensitivity  []Sensitivity
@@ -220,7 +222,7 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 	r := &run{s: s, opt: opt, m: modelFor(s.Model), workers: workers, consts: map[string]float64{}}
 	r.specs = r.m.outputs()
 	res := &Result{Title: s.Title, Path: s.Path, Kind: s.Model.Kind, Fluid: s.Model.Fluid, Conversion: s.Model.Conversion, Seed: seed, Sampling: s.Sampling.String(),
-		Confidence: conf, Streaming: streaming, Precision: opt.Precision}
+		Confidence: conf, Streaming: streaming, Precision: opt.Precision, Correlations: s.Correlations}
 	for _, in := range s.Inputs {
 		res.Inputs = append(res.Inputs, Input{Key: in.Key.Name, Unit: in.Key.Unit, Doc: in.Key.Doc, Dist: in.Dist.String(), Fixed: in.Fixed})
 		if in.Fixed {

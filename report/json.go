@@ -126,6 +126,11 @@ func sensitivityObject(sens []rockheat.Sensitivity) object {
 	return o
 }
 
+type jsonCorrelation struct {
+	Inputs [2]string `json:"inputs"`
+	Rank   float64   `json:"rank"`
+}
+
 type jsonMethod struct {
 	Percentiles       string  `json:"percentiles"`
 	SketchRelErr      float64 `json:"sketch_relative_error,omitempty"`
@@ -139,22 +144,23 @@ type jsonPrecision struct {
 }
 
 type jsonResult struct {
-	Title          string         `json:"title"`
-	Kind           string         `json:"kind"`
-	Fluid          string         `json:"fluid"`
-	Conversion     string         `json:"conversion"`
-	Trials         int            `json:"trials"`
-	Seed           uint64         `json:"seed"`
-	Sampling       string         `json:"sampling"`
-	Convention     string         `json:"convention"`
-	Outputs        object         `json:"outputs"`
-	ZeroHeatTrials int            `json:"zero_heat_trials"`
-	Sensitivity    object         `json:"sensitivity"`
-	Method         jsonMethod     `json:"method"`
-	Precision      *jsonPrecision `json:"precision,omitempty"`
-	Inputs         []jsonInput    `json:"inputs"`
-	Warnings       []string       `json:"warnings"`
-	Caution        string         `json:"caution"`
+	Title          string            `json:"title"`
+	Kind           string            `json:"kind"`
+	Fluid          string            `json:"fluid"`
+	Conversion     string            `json:"conversion"`
+	Trials         int               `json:"trials"`
+	Seed           uint64            `json:"seed"`
+	Sampling       string            `json:"sampling"`
+	Convention     string            `json:"convention"`
+	Outputs        object            `json:"outputs"`
+	ZeroHeatTrials int               `json:"zero_heat_trials"`
+	Sensitivity    object            `json:"sensitivity"`
+	Method         jsonMethod        `json:"method"`
+	Precision      *jsonPrecision    `json:"precision,omitempty"`
+	Inputs         []jsonInput       `json:"inputs"`
+	Correlations   []jsonCorrelation `json:"correlations"`
+	Warnings       []string          `json:"warnings"`
+	Caution        string            `json:"caution"`
 }
 
 // JSON writes r in the JSON contract: title, kind, trials, seed,
@@ -167,6 +173,10 @@ func JSON(w io.Writer, r *rockheat.Result) error {
 		Sensitivity: sensitivityObject(r.Sensitivity),
 		Method:      jsonMethod{Percentiles: "exact", LHSPerBatch: r.PerBatch, SensitivityTrials: r.SensitivityN},
 		Warnings:    append([]string{}, r.Warnings...), Caution: Caution}
+	jr.Correlations = []jsonCorrelation{}
+	for _, c := range r.Correlations {
+		jr.Correlations = append(jr.Correlations, jsonCorrelation{c.Inputs, c.Rank})
+	}
 	if r.Streaming {
 		jr.Method.Percentiles = "sketch"
 		jr.Method.SketchRelErr = r.SketchRelErr

@@ -30,7 +30,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	fmt.Fprintf(&b, "%s\n", r.Title)
 	fmt.Fprintf(&b, "%s\n", strings.Repeat("=", len([]rune(r.Title))))
 	fmt.Fprintf(&b, "Scenario  %s\n", r.Path)
-	fmt.Fprintf(&b, "Model     %s\n", modelLine(r.Kind))
+	fmt.Fprintf(&b, "Model     %s\n", modelLine(r))
 	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed)
 
 	level := r.Confidence
@@ -87,6 +87,9 @@ func Text(w io.Writer, r *rockheat.Result) error {
 		in = append(in, []string{"  " + x.Key, x.Unit, x.Dist})
 	}
 	table(&b, in, "lll")
+	for _, c := range r.Correlations {
+		fmt.Fprintf(&b, "  rank correlation %+.2f between %s and %s (Iman–Conover)\n", c.Rank, c.Inputs[0], c.Inputs[1])
+	}
 
 	b.WriteString("\nMethod\n")
 	wrap(&b, methodText(r), 100)
@@ -136,19 +139,29 @@ func sensitivityText(b *strings.Builder, r *rockheat.Result) {
 			fmt.Fprintf(b, "  (%d more with smaller shares)\n", more)
 		}
 	}
+	if len(r.Correlations) > 0 && len(r.Sensitivity) > 0 {
+		b.WriteString("Some inputs are correlated: their variance shares overlap and only rank their influence.\n")
+	}
 	if len(r.Sensitivity) > 0 && r.SensitivityN < r.Trials {
 		fmt.Fprintf(b, "Sensitivities come from the first %d trials.\n", r.SensitivityN)
 	}
 }
 
-func modelLine(kind string) string {
-	switch kind {
+func modelLine(r *rockheat.Result) string {
+	s := r.Kind
+	switch r.Kind {
 	case "reservoir":
-		return "reservoir (volumetric heat in place)"
+		s = "reservoir (volumetric heat in place)"
 	case "hot-rock":
-		return "hot-rock (conductive column, heat mined by circulated water)"
+		s = "hot-rock (conductive column, heat mined by circulated water)"
 	}
-	return kind
+	if r.Fluid == "if97" {
+		s += ", fluid properties from IAPWS-IF97"
+	}
+	if r.Conversion == "exergy" {
+		s += ", electric capacity by the exergy route"
+	}
+	return s
 }
 
 func methodText(r *rockheat.Result) string {

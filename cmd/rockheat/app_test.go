@@ -35,6 +35,9 @@ func TestGolden(t *testing.T) {
 		{"usage-no-scenario", "run"},
 		{"usage-unknown-flag", "run ../../testdata/small.toml --trails 5"},
 		{"usage-unknown-command", "simulate demo"},
+		{"run-hotrock-json", "run hot-rock-demo --format json --trials 3000"},
+		{"run-correlated-text", "run ../../testdata/correlated.toml"},
+		{"validate-hotrock", "validate ../../testdata/bad-hotrock.toml"},
 		{"examples-list", "examples"},
 		{"examples-unknown", "examples nonesuch"},
 	}
