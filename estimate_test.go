@@ -144,6 +144,24 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	// The streaming route merges per-worker sketches: also bit-identical.
+	var stream *Result
+	for _, w := range []int{1, 3} {
+		res, err := Estimate(s, Options{Trials: 200_001, Workers: w, Stream: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if stream == nil {
+			stream = res
+			continue
+		}
+		for j := range res.Outputs {
+			a, b := res.Outputs[j].Summary, stream.Outputs[j].Summary
+			if !reflect.DeepEqual(a, b) || !reflect.DeepEqual(res.Outputs[j].Curve, stream.Outputs[j].Curve) {
+				t.Errorf("streaming, workers %d: %s differs", w, res.Outputs[j].Spec.Name)
+			}
+		}
+	}
 	var first *Result
 	for _, w := range []int{1, 2, 8} {
 		res, err := Estimate(s, Options{Trials: 200_001, Workers: w, KeepSamples: true})
@@ -178,7 +196,7 @@ func BenchmarkEstimate(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	for _, n := range []int{1_000, 100_000, 1_000_000} {
+	for _, n := range []int{1_000, 100_000, 1_000_000, 10_000_000} {
 		b.Run(fmt.Sprintf("trials=%d", n), func(b *testing.B) {
 			for b.Loop() {
 				if _, err := Estimate(s, Options{Trials: n}); err != nil {
