@@ -86,14 +86,8 @@ type Triangular struct {
 // NewTriangular returns the triangular distribution on [min, max] with the
 // given mode. Constraints: min < max and min ≤ mode ≤ max.
 func NewTriangular(min, mode, max float64) (Triangular, error) {
-	if err := firstErr(finite("min", min), finite("mode", mode), finite("max", max)); err != nil {
+	if err := checkMinModeMax(min, mode, max); err != nil {
 		return Triangular{}, err
-	}
-	if !(min < max) {
-		return Triangular{}, fmt.Errorf("min = %g must be less than max = %g", min, max)
-	}
-	if mode < min || mode > max {
-		return Triangular{}, fmt.Errorf("mode = %g lies outside [min, max] = [%g, %g]; put the most likely value between the limits", mode, min, max)
 	}
 	return Triangular{min, mode, max, distuv.NewTriangle(min, max, mode, nil)}, nil
 }
@@ -269,6 +263,21 @@ func (l logNormal) Quantile(p float64) float64 { return math.Exp(l.n.Quantile(p)
 
 func outside(cdf func(float64) float64, lo, hi float64) float64 {
 	return cdf(math.Nextafter(lo, math.Inf(-1))) + (1 - cdf(hi))
+}
+
+// checkMinModeMax checks the parameters of a three-point distribution:
+// finite, min < max, min ≤ mode ≤ max.
+func checkMinModeMax(min, mode, max float64) error {
+	if err := firstErr(finite("min", min), finite("mode", mode), finite("max", max)); err != nil {
+		return err
+	}
+	if !(min < max) {
+		return fmt.Errorf("min = %g must be less than max = %g", min, max)
+	}
+	if mode < min || mode > max {
+		return fmt.Errorf("mode = %g lies outside [min, max] = [%g, %g]; put the most likely value between the limits", mode, min, max)
+	}
+	return nil
 }
 
 func notNaN(name string, v float64) error {

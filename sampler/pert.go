@@ -79,14 +79,8 @@ func (h *halfTable) quantile(p float64) float64 {
 // NewPERT returns the beta-PERT distribution on [min, max] with the given
 // mode. Constraints: min < max, min ≤ mode ≤ max.
 func NewPERT(min, mode, max float64) (PERT, error) {
-	if err := firstErr(finite("min", min), finite("mode", mode), finite("max", max)); err != nil {
+	if err := checkMinModeMax(min, mode, max); err != nil {
 		return PERT{}, err
-	}
-	if !(min < max) {
-		return PERT{}, fmt.Errorf("min = %g must be less than max = %g", min, max)
-	}
-	if mode < min || mode > max {
-		return PERT{}, fmt.Errorf("mode = %g lies outside [min, max] = [%g, %g]; put the most likely value between the limits", mode, min, max)
 	}
 	r := max - min
 	p := PERT{min: min, mode: mode, max: max,
