@@ -96,7 +96,10 @@ type Influence struct {
 // Sensitivity lists the influence of every sampled input on one output,
 // most influential first.
 type Sensitivity struct {
-	Output     string
+	Output string
+	// Base is the output, in its report unit, with every sampled input
+	// at its median: the point the swings move away from.
+	Base       float64
 	Influences []Influence
 }
 
@@ -160,6 +163,17 @@ type Result struct {
 	Warnings []string
 }
 
+// OptionError reports options that cannot run with the scenario (too
+// many trials, --samples with a streaming run, ...): a usage problem, not
+// a failure of the run.
+type OptionError struct{ Msg string }
+
+func (e *OptionError) Error() string { return e.Msg }
+
+func optionErrorf(format string, args ...any) error {
+	return &OptionError{fmt.Sprintf(format, args...)}
+}
+
 // run is the state of one Estimate.
 type run struct {
 	s       *scenarios.Scenario
@@ -205,10 +219,13 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 		conf = stats.DefaultConfidence
 	}
 	if !(conf > 0 && conf < 1) {
-		return nil, fmt.Errorf("confidence level %g must lie strictly between 0 and 1, e.g. 0.95", conf)
+		return nil, optionErrorf("confidence level %g must lie strictly between 0 and 1, e.g. 0.95", conf)
 	}
 	if opt.Precision < 0 || opt.Precision >= 1 || math.IsNaN(opt.Precision) {
-		return nil, fmt.Errorf("precision %g must be a fraction between 0 and 1, e.g. 0.005 for 0.5%%", opt.Precision)
+		return nil, optionErrorf("precision %g must be a fraction between 0 and 1, e.g. 0.005 for 0.5%%", opt.Precision)
+	}
+	if trials > scenarios.MaxTrials || opt.MaxTrials > scenarios.MaxTrials {
+		return nil, optionErrorf("%d trials is more than the %d a run may take (hours of work); use fewer trials, or --precision to stop when the percentiles are settled", max(trials, opt.MaxTrials), int64(scenarios.MaxTrials))
 	}
 	maxTrials := opt.MaxTrials
 	if maxTrials <= 0 {
@@ -216,7 +233,10 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 	}
 	streaming := trials > ExactLimit || opt.Precision > 0 || opt.Stream
 	if opt.KeepSamples && (trials > MaxKeptTrials || streaming) {
-		return nil, fmt.Errorf("keeping every trial (--samples) works for runs of up to %d trials, without --precision; this run asks for %d: use fewer trials or drop --samples", MaxKeptTrials, max(trials, maxTrials))
+		if opt.Precision > 0 {
+			return nil, optionErrorf("keeping every trial (--samples) does not go with --precision; drop one of them")
+		}
+		return nil, optionErrorf("keeping every trial (--samples) works for runs of up to %d trials; this run has %d: use fewer trials or drop --samples", MaxKeptTrials, trials)
 	}
 
 	r := &run{s: s, opt: opt, m: modelFor(s.Model), workers: workers, consts: map[string]float64{}}
@@ -475,11 +495,11 @@ func (r *run) sensitivity() []Sensitivity {
 	}
 	inRanks := make([][]float64, len(sensIn))
 	parallel(len(sensIn), r.workers, func(j int) { inRanks[j] = stats.Ranks(sensIn[j]) })
-	low, high := r.swings()
+	low, high, base := r.swings()
 	out := make([]Sensitivity, len(r.specs))
 	parallel(len(r.specs), r.workers, func(j int) {
 		infl := stats.RankedSensitivity(r.keys, inRanks, stats.Ranks(sensOut[j]))
-		sens := Sensitivity{Output: r.specs[j].Name}
+		sens := Sensitivity{Output: r.specs[j].Name, Base: base[j]}
 		for _, f := range infl {
 			k := indexOf(r.keys, f.Input)
 			sens.Influences = append(sens.Influences, Influence{Influence: f, SwingLow: low[j][k], SwingHigh: high[j][k]})
@@ -491,10 +511,11 @@ func (r *run) sensitivity() []Sensitivity {
 
 // swings evaluates the model with each sampled input in turn at its own
 // 10th and 90th percentile (its P90 and P10) and the others at their
-// medians: low[j][k] and high[j][k] are output j with input k low and high.
-func (r *run) swings() (low, high [][]float64) {
+// medians: low[j][k] and high[j][k] are output j with input k low and
+// high, base[j] output j with every input at its median.
+func (r *run) swings() (low, high [][]float64, base []float64) {
 	k := len(r.keys)
-	n := 2 * k
+	n := 2*k + 1 // the last trial has every input at its median
 	in := columns(k, n)
 	for j, d := range r.dists {
 		med := d.Quantile(0.5)
@@ -523,14 +544,16 @@ func (r *run) swings() (low, high [][]float64) {
 		}
 	}
 	low, high = make([][]float64, len(r.specs)), make([][]float64, len(r.specs))
+	base = make([]float64, len(r.specs))
 	for j, sp := range r.specs {
+		base[j] = out[j][n-1] / sp.Scale
 		low[j], high[j] = make([]float64, k), make([]float64, k)
 		for i := 0; i < k; i++ {
 			low[j][i] = out[j][2*i] / sp.Scale
 			high[j][i] = out[j][2*i+1] / sp.Scale
 		}
 	}
-	return low, high
+	return low, high, base
 }
 
 func (r *run) samples() *Samples {

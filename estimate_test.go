@@ -9,6 +9,7 @@ import (
 
 	"gonum.org/v1/gonum/stat/distuv"
 
+	"rockheat/heatmodel"
 	"rockheat/sampler"
 	"rockheat/scenarios"
 	"rockheat/stats"
@@ -281,4 +282,47 @@ func TestPrecisionStops(t *testing.T) {
 	if trials[0] != trials[1] {
 		t.Errorf("stopped at %d trials with 1 worker, %d with 2", trials[0], trials[1])
 	}
+}
+
+// TestSwings checks the one-at-a-time swings of heat in place against the
+// Muffler & Cataldi formula (heatmodel.VolumetricHeat) evaluated at the
+// inputs' own quantiles: base with every input at its median, and the
+// area's swing at its 10th (P90) and 90th (P10) percentiles.
+func TestSwings(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Estimate(s, Options{Trials: 2000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	q := func(key string, p float64) float64 {
+		in, _ := s.Input(key)
+		return in.Dist.Quantile(p)
+	}
+	heat := func(areaP float64) float64 {
+		return heatmodel.VolumetricHeat(q("area_km2", areaP)*1e6, q("thickness_m", 0.5), q("porosity", 0.5),
+			q("rock_density_kg_m3", 0.5), q("rock_heat_capacity_j_kgk", 0.5), q("fluid_density_kg_m3", 0.5),
+			q("fluid_heat_capacity_j_kgk", 0.5), q("reservoir_temp_c", 0.5), q("reference_temp_c", 0.5))
+	}
+	sens := res.Sensitivity[0]
+	if sens.Output != "heat_in_place" {
+		t.Fatalf("first sensitivity is %s", sens.Output)
+	}
+	if math.Abs(sens.Base/heat(0.5)-1) > 1e-12 {
+		t.Errorf("base %g J, want %g", sens.Base, heat(0.5))
+	}
+	for _, f := range sens.Influences {
+		if f.Input != "area_km2" {
+			continue
+		}
+		if math.Abs(f.SwingLow/heat(0.1)-1) > 1e-12 || math.Abs(f.SwingHigh/heat(0.9)-1) > 1e-12 {
+			t.Errorf("area swing %g → %g J, want %g → %g", f.SwingLow, f.SwingHigh, heat(0.1), heat(0.9))
+		}
+		return
+	}
+	t.Error("no area_km2 influence")
 }

@@ -252,7 +252,7 @@ func Parse(path string, src []byte) (*Scenario, error) {
 			}
 			if k.Required {
 				c.lines["inputs."+k.Name] = c.lines["inputs"]
-				c.add("inputs."+k.Name, "missing: the %s (%s) is required; add e.g. %s = { dist = \"uniform\", min = ..., max = ... }", k.Doc, k.Unit, k.Name)
+				c.add("inputs."+k.Name, "missing: the %s (%s) is required; add %s = <number>, or a distribution such as { dist = \"uniform\", min = ..., max = ... }", k.Doc, k.Unit, k.Name)
 				continue
 			}
 			s.Inputs = append(s.Inputs, Input{Key: k, Dist: sampler.Fixed{Value: k.Default}, Fixed: true})

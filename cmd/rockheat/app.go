@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 
@@ -29,10 +31,11 @@ func usagef(format string, args ...any) error { return usageError{fmt.Errorf(for
 func exitCode(err error) int {
 	var ue usageError
 	var ps scenarios.Problems
+	var oe *rockheat.OptionError
 	switch {
 	case err == nil:
 		return exitOK
-	case errors.As(err, &ue), errors.As(err, &ps):
+	case errors.As(err, &ue), errors.As(err, &ps), errors.As(err, &oe):
 		return exitBadInput
 	}
 	return exitFailure
@@ -128,7 +131,9 @@ func runCommand() *cli.Command {
 		Usage:        "run a scenario and print its P90/P50/P10 summary",
 		ArgsUsage:    "SCENARIO (a .toml file, or the name of a bundled example such as demo)",
 		Flags: []cli.Flag{
-			&cli.StringFlag{Name: "format", Value: "text", Usage: "output format: text, json or csv"},
+			&cli.StringFlag{Name: "format", Value: "text", Usage: "output format: text, json, csv or html (a self-contained page with charts)"},
+			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file) instead of standard output"},
+			&cli.StringFlag{Name: "plots", Usage: "also write SVG charts (exceedance curves, tornado charts, hot-rock decline) into `DIR`"},
 			&cli.StringFlag{Name: "samples", Usage: "also write every trial's inputs and outputs to this CSV `FILE`"},
 			&cli.IntFlag{Name: "trials", Usage: "number of trials (overrides [run] trials)"},
 			&cli.StringFlag{Name: "seed", Usage: "random seed, a whole number ≥ 0 (overrides [run] seed)"},
@@ -142,10 +147,10 @@ func runCommand() *cli.Command {
 			}
 			format := c.String("format")
 			render, ok := map[string]func(io.Writer, *rockheat.Result) error{
-				"text": report.Text, "json": report.JSON, "csv": report.CSV,
+				"text": report.Text, "json": report.JSON, "csv": report.CSV, "html": report.HTML,
 			}[format]
 			if !ok {
-				return usagef("--format %q is not text, json or csv", format)
+				return usagef("--format %q is not text, json, csv or html", format)
 			}
 			opt := rockheat.Options{Workers: c.Int("workers"), KeepSamples: c.String("samples") != ""}
 			if c.IsSet("trials") {
@@ -195,9 +200,44 @@ func runCommand() *cli.Command {
 					return err
 				}
 			}
+			if dir := c.String("plots"); dir != "" {
+				if err := writePlots(dir, res); err != nil {
+					return err
+				}
+			}
+			if path := c.String("out"); path != "" {
+				return report.WriteFile(path, func(w io.Writer) error { return render(w, res) })
+			}
 			return render(c.App.Writer, res)
 		},
 	}
+}
+
+// writePlots writes the charts of res into dir: the exceedance curve and
+// tornado chart of every output, and the decline of a hot-rock run.
+func writePlots(dir string, res *rockheat.Result) error {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return fmt.Errorf("creating the plot directory: %w", err)
+	}
+	for _, o := range res.Outputs {
+		name := o.Spec.Name
+		if err := report.WriteFile(filepath.Join(dir, "exceedance-"+name+".svg"), func(w io.Writer) error {
+			return report.ExceedanceSVG(w, res, name)
+		}); err != nil {
+			return err
+		}
+		if len(res.Sensitivity) > 0 {
+			if err := report.WriteFile(filepath.Join(dir, "tornado-"+name+".svg"), func(w io.Writer) error {
+				return report.TornadoSVG(w, res, name)
+			}); err != nil {
+				return err
+			}
+		}
+	}
+	if res.Kind == "hot-rock" {
+		return report.WriteFile(filepath.Join(dir, "decline.svg"), func(w io.Writer) error { return report.DeclineSVG(w, res) })
+	}
+	return nil
 }
 
 // load reads a scenario; a file that cannot be read is a usage error.

@@ -102,6 +102,8 @@ func TestExitCodes(t *testing.T) {
 		{"run demo --trials -5", 2},
 		{"run demo --samples /nonexistent-dir/x.csv --trials 100", 1},
 		{"run ../../testdata/nonesuch.toml", 2},
+		{"run demo --trials 20000000000", 2},
+		{"run demo --trials 3000000 --samples x.csv", 2},
 	} {
 		var out, errw bytes.Buffer
 		err := run(&out, &errw, append([]string{"rockheat"}, strings.Fields(c.args)...))
@@ -130,6 +132,30 @@ func TestJSONDeterministicAcrossWorkers(t *testing.T) {
 		}
 		if out.String() != first {
 			t.Errorf("workers %s: JSON differs from workers 1", w)
+		}
+	}
+}
+
+// TestPlotsAndOut checks --plots (one exceedance and one tornado chart per
+// output, SVG) and --out (the report written whole to a file).
+func TestPlotsAndOut(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "report.html")
+	var so, se bytes.Buffer
+	if err := run(&so, &se, []string{"rockheat", "run", "hot-rock-demo", "--trials", "2000", "--plots", filepath.Join(dir, "plots"), "--format", "html", "--out", out}); err != nil {
+		t.Fatal(err)
+	}
+	if so.Len() != 0 {
+		t.Errorf("stdout holds %d bytes with --out", so.Len())
+	}
+	page, err := os.ReadFile(out)
+	if err != nil || !strings.Contains(string(page), "<svg") || !strings.Contains(string(page), "not a reserves") {
+		t.Fatalf("report.html: %v, %d bytes", err, len(page))
+	}
+	for _, name := range []string{"exceedance-heat_in_place.svg", "tornado-electric_power.svg", "exceedance-thermal_power_at_30_years.svg", "decline.svg"} {
+		b, err := os.ReadFile(filepath.Join(dir, "plots", name))
+		if err != nil || !bytes.Contains(b, []byte("<svg")) {
+			t.Errorf("%s: %v", name, err)
 		}
 	}
 }

@@ -1,0 +1,327 @@
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"html"
+	"html/template"
+	"io"
+	"math"
+	"strings"
+
+	"rockheat"
+)
+
+// HTML writes r as one self-contained HTML page, with inline CSS and
+// inline SVG charts and no script or outside resource: the title and the
+// run, the P90/P50/P10 and mean of every output with the confidence
+// interval of each percentile, the percentile convention, for the
+// headline outputs (heat in place, electric capacity) the exceedance and
+// tornado charts and the sensitivity table, for a hot-rock result the
+// thermal power at each report year as a table and a chart, the inputs,
+// the method, any warnings and the caution. All text is HTML-escaped.
+// Nothing is written if the page cannot be built.
+func HTML(w io.Writer, r *rockheat.Result) error {
+	pg, err := newPage(r)
+	if err != nil {
+		return err
+	}
+	var b bytes.Buffer
+	if err := pageTemplate.Execute(&b, pg); err != nil {
+		return fmt.Errorf("rendering the HTML report: %w", err)
+	}
+	_, err = b.WriteTo(w)
+	return err
+}
+
+// page is what the HTML template shows.
+type page struct {
+	Title, Path, Model, Run string
+	Level                   string // confidence level, e.g. "95%"
+	Rows                    []figureRow
+	Convention, Caution     string
+	Notes                   []string
+	Charts                  []chartSection
+	Decline                 *declineSection
+	Sensitivity             []sensSection
+	SensNotes               []string
+	Inputs                  []rockheat.Input
+	Correlations            []string
+	Method                  string
+	Warnings                []string
+}
+
+// figureRow is one output of the summary table, formatted.
+type figureRow struct {
+	Name, Doc, Unit     string
+	P90, P50, P10, Mean string
+	P90CI, P50CI, P10CI string
+}
+
+// chartSection holds the charts of one headline output; a chart that
+// cannot be drawn is replaced by a note saying why.
+type chartSection struct {
+	Doc                  string
+	Exceedance, Tornado  template.HTML
+	ExceedNote, TornNote string
+}
+
+// declineSection is the thermal power at each report year.
+type declineSection struct {
+	Unit  string
+	Rows  []yearRow
+	Chart template.HTML
+	Note  string
+}
+
+type yearRow struct{ Year, P90, P50, P10 string }
+
+// sensSection is the sensitivity table of one headline output.
+type sensSection struct {
+	Doc, Unit string
+	Rows      []sensRow
+}
+
+type sensRow struct {
+	Input, Rho, Share, Low, High string
+	Bar                          int // share of variance, percent, for the bar width
+}
+
+func newPage(r *rockheat.Result) (*page, error) {
+	pg := &page{
+		Title:      r.Title,
+		Path:       r.Path,
+		Model:      modelLine(r),
+		Run:        fmt.Sprintf("%d trials (%s), seed %d", r.Trials, samplingName(r.Sampling), r.Seed),
+		Level:      fmt.Sprintf("%.0f%%", 100*r.Confidence),
+		Convention: Convention,
+		Caution:    Caution,
+		Inputs:     r.Inputs,
+		Method:     methodText(r),
+		Warnings:   r.Warnings,
+	}
+
+	// One energy unit for every heat row, from the largest median, as
+	// in the text report.
+	var big float64
+	for _, o := range r.Outputs {
+		if o.Spec.Unit == "J" {
+			big = math.Max(big, math.Abs(o.Summary.P50))
+		}
+	}
+	eUnit, eScale := energyUnit(big)
+	for _, o := range r.Outputs {
+		if o.Spec.Group == DeclineGroup {
+			continue
+		}
+		unit, scale := o.Spec.Unit, 1.0
+		if unit == "J" {
+			unit, scale = eUnit, eScale
+		}
+		s := o.Summary
+		pg.Rows = append(pg.Rows, figureRow{Name: o.Spec.Name, Doc: o.Spec.Doc, Unit: unit,
+			P90: fig(s.P90 / scale), P50: fig(s.P50 / scale), P10: fig(s.P10 / scale), Mean: fig(s.Mean / scale),
+			P90CI: ci(s.P90CI.Lo/scale, s.P90CI.Hi/scale), P50CI: ci(s.P50CI.Lo/scale, s.P50CI.Hi/scale),
+			P10CI: ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale)})
+	}
+
+	if r.ZeroHeatTrials > 0 {
+		pg.Notes = append(pg.Notes, fmt.Sprintf("%d of %d trials (%.2f%%) had no heat above the reference temperature and count as zero.",
+			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials)))
+	}
+	if r.Streaming {
+		pg.Notes = append(pg.Notes, fmt.Sprintf("Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.", 100*r.SketchRelErr))
+	}
+	if r.PerBatch {
+		pg.Notes = append(pg.Notes, "The Latin hypercube is stratified batch by batch.")
+	}
+	if r.Precision > 0 {
+		if r.Converged {
+			pg.Notes = append(pg.Notes, fmt.Sprintf("Ran until every P90, P50 and P10 interval was within ±%.3g%%: %d trials.", 100*r.Precision, r.Trials))
+		} else {
+			pg.Notes = append(pg.Notes, fmt.Sprintf("Stopped at the trial cap (%d trials) before every interval was within ±%.3g%%.", r.Trials, 100*r.Precision))
+		}
+	}
+
+	for _, o := range r.Outputs {
+		if !headline[o.Spec.Name] {
+			continue
+		}
+		cs := chartSection{Doc: o.Spec.Doc}
+		var err error
+		if cs.Exceedance, err = inlineSVG(o.Spec.Doc+": probability of exceeding", func(w io.Writer) error { return ExceedanceSVG(w, r, o.Spec.Name) }); err != nil {
+			cs.ExceedNote = "No exceedance chart: " + err.Error()
+		}
+		if cs.Tornado, err = inlineSVG(o.Spec.Doc+": tornado chart of the input swings", func(w io.Writer) error { return TornadoSVG(w, r, o.Spec.Name) }); err != nil {
+			cs.TornNote = "No tornado chart: " + err.Error()
+		}
+		pg.Charts = append(pg.Charts, cs)
+	}
+
+	if outs := declineOutputs(r); len(outs) > 0 {
+		d := &declineSection{Unit: outs[0].Spec.Unit}
+		for _, o := range outs {
+			s := o.Summary
+			d.Rows = append(d.Rows, yearRow{Year: fmt.Sprintf("%g", o.Spec.Year), P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10)})
+		}
+		var err error
+		if d.Chart, err = inlineSVG("thermal power decline", func(w io.Writer) error { return DeclineSVG(w, r) }); err != nil {
+			d.Note = "No decline chart: " + err.Error()
+		}
+		pg.Decline = d
+	}
+
+	for _, s := range r.Sensitivity {
+		if !headline[s.Output] || len(s.Influences) == 0 {
+			continue
+		}
+		o, err := findOutput(r, s.Output)
+		if err != nil {
+			continue
+		}
+		_, unit, scale := chartUnit(o)
+		sec := sensSection{Doc: o.Spec.Doc, Unit: unit}
+		for _, f := range s.Influences {
+			rho := f.RankCorrelation
+			if math.Abs(rho) < 0.005 {
+				rho = 0 // no "-0.00"
+			}
+			sec.Rows = append(sec.Rows, sensRow{Input: f.Input, Rho: fmt.Sprintf("%+.2f", rho),
+				Share: fmt.Sprintf("%.0f%%", 100*f.VarianceShare), Bar: int(math.Round(100 * f.VarianceShare)),
+				Low: swingFig(f.SwingLow / scale), High: swingFig(f.SwingHigh / scale)})
+		}
+		pg.Sensitivity = append(pg.Sensitivity, sec)
+	}
+	if len(r.Correlations) > 0 && len(r.Sensitivity) > 0 {
+		pg.SensNotes = append(pg.SensNotes, "Some inputs are correlated: their variance shares overlap and only rank their influence.")
+	}
+	if len(r.Sensitivity) > 0 && r.SensitivityN < r.Trials {
+		pg.SensNotes = append(pg.SensNotes, fmt.Sprintf("Sensitivities come from the first %d trials.", r.SensitivityN))
+	}
+	for _, c := range r.Correlations {
+		pg.Correlations = append(pg.Correlations, fmt.Sprintf("rank correlation %+.2f between %s and %s (Iman–Conover)", c.Rank, c.Inputs[0], c.Inputs[1]))
+	}
+	return pg, nil
+}
+
+// swingFig formats a swing figure, or a dash where the model gave none.
+func swingFig(x float64) string {
+	if !finite(x) {
+		return "–"
+	}
+	return fig(x)
+}
+
+// inlineSVG renders a chart with draw and returns it for inlining in
+// HTML: the <svg> element without the XML prolog, labelled for screen
+// readers with label. The text in the SVG is escaped by vgsvg.
+func inlineSVG(label string, draw func(w io.Writer) error) (template.HTML, error) {
+	var b strings.Builder
+	if err := draw(&b); err != nil {
+		return "", err
+	}
+	s := b.String()
+	i := strings.Index(s, "<svg")
+	if i < 0 {
+		return "", fmt.Errorf("the chart renderer wrote no <svg> element")
+	}
+	s = `<svg role="img" aria-label="` + html.EscapeString(label) + `"` + s[i+len("<svg"):]
+	return template.HTML(s), nil
+}
+
+var pageTemplate = template.Must(template.New("page").Parse(`<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>{{.Title}} · rockheat</title>
+<style>
+:root { --ink: #242a30; --soft: #5c646c; --rule: #d9dde1; --band: #f4f6f7; --accent: #1d5b79; }
+body { margin: 0; color: var(--ink); background: #fff; font: 15px/1.45 "Liberation Sans", Arial, Helvetica, sans-serif; }
+main { max-width: 60rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
+h1 { font-size: 1.6rem; margin: 0 0 .25rem; }
+h2 { font-size: 1.2rem; margin: 2.2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid var(--accent); }
+h3 { font-size: 1rem; margin: 1.4rem 0 .4rem; }
+.run { color: var(--soft); margin: 0; }
+.caution { border: 2px solid #b8860b; background: #fff8e1; padding: .7rem 1rem; margin: 1.2rem 0; }
+.caution strong { color: #7a5600; }
+.warning { border-left: 4px solid #a83a1c; background: #fdf0ec; padding: .4rem .8rem; margin: .5rem 0; }
+table { border-collapse: collapse; margin: .4rem 0 .8rem; font-variant-numeric: tabular-nums; }
+th, td { padding: .25rem .6rem; border-bottom: 1px solid var(--rule); vertical-align: top; }
+th { text-align: left; background: var(--band); font-weight: 600; }
+td.n, th.n { text-align: right; white-space: nowrap; }
+tr.ci td { color: var(--soft); font-size: .82rem; border-bottom: 1px solid var(--rule); padding-top: 0; }
+tr.fig td { border-bottom: none; }
+.note { color: var(--soft); font-size: .9rem; margin: .3rem 0; }
+.convention { font-size: .92rem; }
+figure { margin: 1rem 0; }
+figure svg { max-width: 100%; height: auto; display: block; border: 1px solid var(--rule); }
+svg text { font-family: "Liberation Sans", Arial, Helvetica, sans-serif !important; }
+.bar { display: inline-block; height: .7rem; background: #4a9ca6; vertical-align: middle; }
+.barbox { display: inline-block; width: 8rem; background: var(--band); }
+code { font-size: .9em; }
+</style>
+</head>
+<body>
+<main>
+<h1>{{.Title}}</h1>
+<p class="run">Scenario {{.Path}} · {{.Model}}</p>
+<p class="run">{{.Run}}</p>
+
+<div class="caution"><strong>Caution.</strong> {{.Caution}}</div>
+
+<h2>Estimates</h2>
+<table>
+<tr><th>output</th><th class="n">P90 (low)</th><th class="n">P50 (best)</th><th class="n">P10 (high)</th><th class="n">mean</th><th>unit</th></tr>
+{{range .Rows}}<tr class="fig"><td>{{.Doc}}</td><td class="n">{{.P90}}</td><td class="n">{{.P50}}</td><td class="n">{{.P10}}</td><td class="n">{{.Mean}}</td><td>{{.Unit}}</td></tr>
+<tr class="ci"><td></td><td class="n">{{.P90CI}}</td><td class="n">{{.P50CI}}</td><td class="n">{{.P10CI}}</td><td></td><td></td></tr>
+{{end}}</table>
+<p class="note">Ranges in brackets are {{.Level}} distribution-free confidence intervals of each percentile (order statistics, binomial; Hahn &amp; Meeker 1991): how far the figure could move with more trials.</p>
+<p class="convention">{{.Convention}}</p>
+{{range .Notes}}<p class="note">{{.}}</p>
+{{end}}
+{{with .Decline}}
+<h2>Thermal power decline</h2>
+<table>
+<tr><th class="n">year</th><th class="n">P90 (low)</th><th class="n">P50 (best)</th><th class="n">P10 (high)</th></tr>
+{{range .Rows}}<tr><td class="n">{{.Year}}</td><td class="n">{{.P90}}</td><td class="n">{{.P50}}</td><td class="n">{{.P10}}</td></tr>
+{{end}}</table>
+<p class="note">Thermal power in {{.Unit}} at each report year.</p>
+{{if .Chart}}<figure>{{.Chart}}</figure>{{else}}<p class="note">{{.Note}}</p>{{end}}
+{{end}}
+{{range .Charts}}
+<h2>Charts: {{.Doc}}</h2>
+<div class="charts">
+{{if .Exceedance}}<figure>{{.Exceedance}}</figure>{{else}}<p class="note">{{.ExceedNote}}</p>{{end}}
+{{if .Tornado}}<figure>{{.Tornado}}</figure>{{else}}<p class="note">{{.TornNote}}</p>{{end}}
+</div>
+{{end}}
+{{if .Sensitivity}}
+<h2>Sensitivity</h2>
+{{range .Sensitivity}}
+<h3>What drives the {{.Doc}}</h3>
+<table>
+<tr><th>input</th><th class="n">rank correlation</th><th>share of variance</th><th class="n">input low → high, {{.Unit}}</th></tr>
+{{range .Rows}}<tr><td><code>{{.Input}}</code></td><td class="n">{{.Rho}}</td><td><span class="barbox"><span class="bar" style="width: {{.Bar}}%"></span></span> {{.Share}}</td><td class="n">{{.Low}} → {{.High}}</td></tr>
+{{end}}</table>
+{{end}}
+<p class="note">Spearman rank correlation of each input with the output; share of variance is its square over the sum of squares. Input low → high: the output with that input at its own 10th and 90th percentile and every other input at its median.</p>
+{{range .SensNotes}}<p class="note">{{.}}</p>
+{{end}}{{end}}
+<h2>Inputs</h2>
+<table>
+<tr><th>key</th><th>unit</th><th>distribution</th><th>what it is</th></tr>
+{{range .Inputs}}<tr><td><code>{{.Key}}</code></td><td>{{.Unit}}</td><td>{{.Dist}}</td><td>{{.Doc}}</td></tr>
+{{end}}</table>
+{{range .Correlations}}<p class="note">{{.}}</p>
+{{end}}
+{{if .Method}}<h2>Method</h2>
+<p>{{.Method}}</p>
+{{end}}
+{{if .Warnings}}<h2>Warnings</h2>
+{{range .Warnings}}<p class="warning">{{.}}</p>
+{{end}}{{end}}
+</main>
+</body>
+</html>
+`))
