@@ -79,6 +79,20 @@ func liquidAt(p, T float64) (water.State, bool, error) {
 // (IAPWS-IF97), temperatures in K.
 func exergyEfficiency(n int, etaU, tr, tref heatmodel.Column, s *scratch) (heatmodel.Column, error) {
 	out := s.buf(22, n)
+	deadAt := func(t0 float64) (water.State, error) {
+		st, err := water.Liquid(atmosphere, t0)
+		if err != nil {
+			return st, fmt.Errorf("dead state at %.2f °C: %w", t0-celsiusZero, err)
+		}
+		return st, nil
+	}
+	var dead water.State
+	if tref.Values == nil { // one reference temperature: one dead state
+		var err error
+		if dead, err = deadAt(tref.Const); err != nil {
+			return heatmodel.Column{}, err
+		}
+	}
 	for i := 0; i < n; i++ {
 		t, t0 := tr.At(i), tref.At(i)
 		if t <= t0 {
@@ -89,9 +103,10 @@ func exergyEfficiency(n int, etaU, tr, tref heatmodel.Column, s *scratch) (heatm
 		if err != nil {
 			return heatmodel.Column{}, fmt.Errorf("wellhead fluid at %.2f °C: %w", t-celsiusZero, err)
 		}
-		dead, err := water.Liquid(atmosphere, t0)
-		if err != nil {
-			return heatmodel.Column{}, fmt.Errorf("dead state at %.2f °C: %w", t0-celsiusZero, err)
+		if tref.Values != nil {
+			if dead, err = deadAt(t0); err != nil {
+				return heatmodel.Column{}, err
+			}
 		}
 		out[i] = etaU.At(i) * heatmodel.ExergyFraction(wh.Enthalpy, wh.Entropy, dead.Enthalpy, dead.Entropy, t0)
 	}
