@@ -3,6 +3,7 @@ package rockheat
 import (
 	"fmt"
 	"math"
+	"os"
 	"reflect"
 	"strings"
 	"testing"
@@ -325,4 +326,31 @@ func TestSwings(t *testing.T) {
 		return
 	}
 	t.Error("no area_km2 influence")
+}
+
+// BenchmarkEstimateKinds runs the other model routes at 10⁵ trials: IF97
+// fluid with the exergy route and correlated inputs, and hot rock.
+func BenchmarkEstimateKinds(b *testing.B) {
+	src, err := os.ReadFile("testdata/correlated.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	corr, err := scenarios.Parse("correlated", src)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ex, _ := scenarios.LookupExample("hot-rock-demo")
+	hot, err := scenarios.Parse("hot-rock-demo", ex.Text)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for name, s := range map[string]*scenarios.Scenario{"if97-exergy-correlated": corr, "hot-rock": hot} {
+		b.Run(name, func(b *testing.B) {
+			for b.Loop() {
+				if _, err := Estimate(s, Options{Trials: 100_000}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
 }
