@@ -125,23 +125,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 			P10CI: ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale)})
 	}
 
-	if r.ZeroHeatTrials > 0 {
-		pg.Notes = append(pg.Notes, fmt.Sprintf("%d of %d trials (%.2f%%) had no heat above the reference temperature and count as zero.",
-			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials)))
-	}
-	if r.Streaming {
-		pg.Notes = append(pg.Notes, fmt.Sprintf("Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.", 100*r.SketchRelErr))
-	}
-	if r.PerBatch {
-		pg.Notes = append(pg.Notes, "The Latin hypercube is stratified batch by batch.")
-	}
-	if r.Precision > 0 {
-		if r.Converged {
-			pg.Notes = append(pg.Notes, fmt.Sprintf("Ran until every P90, P50 and P10 interval was within ±%.3g%%: %d trials.", 100*r.Precision, r.Trials))
-		} else {
-			pg.Notes = append(pg.Notes, fmt.Sprintf("Stopped at the trial cap (%d trials) before every interval was within ±%.3g%%.", r.Trials, 100*r.Precision))
-		}
-	}
+	pg.Notes = append(pg.Notes, runNotes(r)...)
 
 	for _, o := range r.Outputs {
 		if !headline[o.Spec.Name] {

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"rockheat"
+	"rockheat/sampler"
 )
 
 // energyUnit picks a readable unit for heat figures of magnitude x, J.
@@ -55,29 +56,8 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	table(&b, rows, "lrrrrl")
 	fmt.Fprintf(&b, "\nRanges in brackets are %.0f%% distribution-free confidence intervals of each percentile\n(order statistics, binomial; Hahn & Meeker 1991): how far the figure could move with more trials.\n", 100*level)
 	wrap(&b, Convention, 100)
-	what := "reservoir temperature at or below the reference temperature"
-	if r.Kind == "hot-rock" {
-		what = "no rock at or above the minimum useful temperature between the top and the maximum depth"
-	}
-	if r.ZeroHeatTrials > 0 {
-		fmt.Fprintf(&b, "%d of %d trials (%.2f%%) had %s; they hold no heat and count as zero.\n",
-			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials), what)
-	} else {
-		fmt.Fprintf(&b, "No trial had %s.\n", what)
-	}
-
-	if r.Streaming {
-		fmt.Fprintf(&b, "Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.\n", 100*r.SketchRelErr)
-	}
-	if r.PerBatch {
-		fmt.Fprintf(&b, "The Latin hypercube is stratified per batch of %d trials.\n", 65536)
-	}
-	if r.Precision > 0 {
-		if r.Converged {
-			fmt.Fprintf(&b, "Ran until every P90, P50 and P10 interval was within ±%.3g%%: %d trials.\n", 100*r.Precision, r.Trials)
-		} else {
-			fmt.Fprintf(&b, "Stopped at the trial cap (%d trials) before every interval was within ±%.3g%%.\n", r.Trials, 100*r.Precision)
-		}
+	for _, note := range runNotes(r) {
+		b.WriteString(note + "\n")
 	}
 	sensitivityText(&b, r)
 
@@ -100,6 +80,39 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	wrap(&b, "CAUTION: "+Caution, 100)
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// runNotes are the sentences that qualify a run's figures: zero-heat
+// trials, the percentile method, the stratification and the precision.
+func runNotes(r *rockheat.Result) []string {
+	notes := []string{zeroHeatNote(r)}
+	if r.Streaming {
+		notes = append(notes, fmt.Sprintf("Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.", 100*r.SketchRelErr))
+	}
+	if r.PerBatch {
+		notes = append(notes, fmt.Sprintf("The Latin hypercube is stratified per batch of %d trials.", sampler.BatchSize))
+	}
+	if r.Precision > 0 {
+		if r.Converged {
+			notes = append(notes, fmt.Sprintf("Ran until every P90, P50 and P10 interval was within ±%.3g%%: %d trials.", 100*r.Precision, r.Trials))
+		} else {
+			notes = append(notes, fmt.Sprintf("Stopped at the trial cap (%d trials) before every interval was within ±%.3g%%.", r.Trials, 100*r.Precision))
+		}
+	}
+	return notes
+}
+
+// zeroHeatNote says how many trials held no heat, and why a trial can.
+func zeroHeatNote(r *rockheat.Result) string {
+	what := "reservoir temperature at or below the reference temperature"
+	if r.Kind == "hot-rock" {
+		what = "no rock at or above the minimum useful temperature between the top and the maximum depth"
+	}
+	if r.ZeroHeatTrials > 0 {
+		return fmt.Sprintf("%d of %d trials (%.2f%%) had %s; they hold no heat and count as zero.",
+			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials), what)
+	}
+	return fmt.Sprintf("No trial had %s.", what)
 }
 
 // headline lists the outputs whose drivers the text report shows.
