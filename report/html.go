@@ -101,15 +101,8 @@ func newPage(r *rockheat.Result) (*page, error) {
 		Warnings:   r.Warnings,
 	}
 
-	// One energy unit for every heat row, from the largest median, as
-	// in the text report.
-	var big float64
-	for _, o := range r.Outputs {
-		if o.Spec.Unit == "J" {
-			big = math.Max(big, math.Abs(o.Summary.P50))
-		}
-	}
-	eUnit, eScale := energyUnit(big)
+	// One energy unit for every heat row, as in the text report.
+	eUnit, eScale := heatUnit(r)
 	for _, o := range r.Outputs {
 		if o.Spec.Group == DeclineGroup {
 			continue

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"html/template"
 	"io"
-	"math"
 	"strings"
 	"testing"
 
@@ -72,13 +71,7 @@ func TestHTML(t *testing.T) {
 			}
 			// Same figures as the text report's table: heat rows in one
 			// energy unit, from the largest median.
-			var big float64
-			for _, o := range r.Outputs {
-				if o.Spec.Unit == "J" {
-					big = math.Max(big, math.Abs(o.Summary.P50))
-				}
-			}
-			_, eScale := energyUnit(big)
+			_, eScale := heatUnit(r)
 			for _, o := range r.Outputs {
 				scale := 1.0
 				if o.Spec.Unit == "J" {

@@ -23,6 +23,18 @@ func energyUnit(x float64) (name string, scale float64) {
 	return "J", 1
 }
 
+// heatUnit returns the one energy unit of a report's heat rows, chosen
+// from the largest heat median so that rows compare at a glance.
+func heatUnit(r *rockheat.Result) (name string, scale float64) {
+	var big float64
+	for _, o := range r.Outputs {
+		if o.Spec.Unit == "J" {
+			big = math.Max(big, math.Abs(o.Summary.P50))
+		}
+	}
+	return energyUnit(big)
+}
+
 // Text writes r as a summary table for people: the headline figures in
 // readable units, the percentile convention and method, the inputs, any
 // warnings and the caution.
@@ -35,14 +47,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed)
 
 	level := r.Confidence
-	// One energy unit for every heat row, chosen from the largest median.
-	var big float64
-	for _, o := range r.Outputs {
-		if o.Spec.Unit == "J" {
-			big = math.Max(big, math.Abs(o.Summary.P50))
-		}
-	}
-	eUnit, eScale := energyUnit(big)
+	eUnit, eScale := heatUnit(r)
 	rows := [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
 	for _, o := range r.Outputs {
 		s := o.Summary
