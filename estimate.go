@@ -232,7 +232,7 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 		maxTrials = DefaultMaxTrials
 	}
 	streaming := trials > ExactLimit || opt.Precision > 0 || opt.Stream
-	if opt.KeepSamples && (trials > MaxKeptTrials || streaming) {
+	if opt.KeepSamples && streaming { // every run longer than MaxKeptTrials streams
 		if opt.Precision > 0 {
 			return nil, optionErrorf("keeping every trial (--samples) does not go with --precision; drop one of them")
 		}
@@ -258,13 +258,22 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 	}
 	r.plan = sampler.NewPlan(r.dists, sampler.Config{Trials: planTrials, Seed: seed, Method: s.Sampling,
 		Correlation: s.Correlation, PerBatch: streaming})
-	res.PerBatch = s.Sampling == sampler.LatinHypercube && (streaming || trials > ExactLimit) && trials > sampler.BatchSize
+	res.PerBatch = s.Sampling == sampler.LatinHypercube && streaming && trials > sampler.BatchSize
 
-	r.sensN = min(trials, SensitivityTrials)
-	r.sensIn = columns(len(r.dists), r.sensN)
-	r.sensOut = columns(len(r.specs), r.sensN)
+	// The sensitivity sample is the first trials of the run. A run to a
+	// precision runs at least SensitivityTrials in its first round.
+	firstRound := trials
+	if opt.Precision > 0 {
+		firstRound = min(max(trials, SensitivityTrials), planTrials)
+	}
+	r.sensN = min(firstRound, SensitivityTrials)
 	if opt.KeepSamples {
 		r.keepIn = columns(len(r.dists), trials)
+	} else {
+		r.sensIn = columns(len(r.dists), r.sensN)
+	}
+	if streaming {
+		r.sensOut = columns(len(r.specs), r.sensN)
 	}
 	stat := stats.Options{Confidence: conf}
 	var err error
@@ -317,8 +326,27 @@ func Estimate(s *scenarios.Scenario, opt Options) (*Result, error) {
 	if n := r.saturated.Load(); n > 0 {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("in %d of %d trials the fluid pressure was below the saturation pressure at the sampled temperature, so the water would boil; those trials use saturated-liquid properties at their temperature (a boiling-point reservoir). Check the pressure (or depth) and temperature ranges together", n, res.Trials))
 	}
+	// The summaries' own warnings (too few trials for an interval, NaN
+	// values), each said once; an output that does not vary has exact
+	// percentiles whatever the trial count.
+	seen := map[string]bool{}
+	for _, o := range res.Outputs {
+		if o.Summary.Min == o.Summary.Max {
+			continue
+		}
+		for _, w := range o.Summary.Warnings {
+			if msg := w.Error(); !seen[msg] {
+				seen[msg] = true
+				res.Warnings = append(res.Warnings, msg)
+			}
+		}
+	}
 	if res.ZeroHeatTrials == res.Trials {
-		res.Warnings = append(res.Warnings, "no trial has any heat above the reference temperature; check the temperature inputs")
+		if s.Model.Kind == scenarios.KindHotRock {
+			res.Warnings = append(res.Warnings, "no trial has rock at or above the minimum useful temperature above the maximum depth; check the temperature, gradient and depth inputs")
+		} else {
+			res.Warnings = append(res.Warnings, "no trial has any heat above the reference temperature; check the temperature inputs")
+		}
 	}
 	if opt.KeepSamples {
 		res.Samples = r.samples()
@@ -335,7 +363,7 @@ func (r *run) stream(trials, planTrials int, stat stats.Options) (ran int, conve
 		r.planned = trials
 		return trials, false, r.batches(0, r.plan.Batches())
 	}
-	target := max(trials, SensitivityTrials)
+	target := max(trials, SensitivityTrials) // as firstRound in Estimate
 	from := 0
 	for {
 		target = min(target, planTrials)

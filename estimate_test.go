@@ -354,3 +354,31 @@ func BenchmarkEstimateKinds(b *testing.B) {
 		})
 	}
 }
+
+// TestPrecisionSensitivitySample: a run to a precision computes its
+// sensitivities on its first SensitivityTrials trials, which are the same
+// draws as a streaming run of exactly that many (per-batch streams depend
+// only on the seed and the batch index), so both give identical rank
+// correlations.
+func TestPrecisionSensitivitySample(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	prec, err := Estimate(s, Options{Trials: 10_000, Precision: 0.01})
+	if err != nil {
+		t.Fatal(err)
+	}
+	str, err := Estimate(s, Options{Trials: SensitivityTrials, Stream: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if prec.SensitivityN != SensitivityTrials {
+		t.Fatalf("sensitivity sample of %d trials, want %d", prec.SensitivityN, SensitivityTrials)
+	}
+	if !reflect.DeepEqual(prec.Sensitivity, str.Sensitivity) {
+		t.Errorf("sensitivities differ:\n%+v\n%+v", prec.Sensitivity[0], str.Sensitivity[0])
+	}
+}

@@ -133,11 +133,7 @@ func newHotRockModel(m scenarios.Model) *hotRockModel {
 		h.times = append(h.times, y*year)
 	}
 	if m.Layered {
-		var hl []heatmodel.Layer
-		for _, l := range m.Layers {
-			hl = append(hl, heatmodel.Layer{Bottom: l.BottomKm * 1000, Gradient: l.GradientCPerKm / 1000})
-		}
-		p, err := heatmodel.NewProfile(hl)
+		p, err := m.Geotherm()
 		if err != nil {
 			panic("rockheat: layers passed the scenario checks but not NewProfile: " + err.Error())
 		}

@@ -498,13 +498,7 @@ func ExampleHotRock_Evaluate() {
 
 func BenchmarkHotRock(b *testing.B) {
 	const n = 1 << 16
-	v := func(x float64) Column {
-		c := make([]float64, n)
-		for i := range c {
-			c[i] = x * (1 + float64(i%97)/1000)
-		}
-		return Vary(c)
-	}
+	v := func(x float64) Column { return benchColumn(n, x) }
 	layered := mustProfile(b, []Layer{{1500, 0.04}, {3000, 0.028}, {5000, 0.025}})
 	for _, bc := range []struct {
 		name     string

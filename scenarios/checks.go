@@ -42,7 +42,6 @@ func (c *checker) modelSettings(s *Scenario, r *raw) {
 		return
 	}
 	m.Layered = true
-	var hl []heatmodel.Layer
 	for i, l := range r.Layers {
 		key := fmt.Sprintf("layers[%d]", i+1)
 		if l.BottomKm == nil || l.GradientCPerKm == nil {
@@ -50,10 +49,9 @@ func (c *checker) modelSettings(s *Scenario, r *raw) {
 			continue
 		}
 		m.Layers = append(m.Layers, Layer{BottomKm: *l.BottomKm, GradientCPerKm: *l.GradientCPerKm})
-		hl = append(hl, heatmodel.Layer{Bottom: *l.BottomKm * 1000, Gradient: *l.GradientCPerKm / 1000})
 	}
-	if len(hl) == len(r.Layers) {
-		if _, err := heatmodel.NewProfile(hl); err != nil {
+	if len(m.Layers) == len(r.Layers) {
+		if _, err := m.Geotherm(); err != nil {
 			for _, e := range unjoin(err) {
 				msg := strings.TrimPrefix(e.Error(), "heatmodel: ")
 				msg = strings.NewReplacer(" m ", " km ", " m:", " km:", "K/m", "°C/km").Replace(kmText(msg))
@@ -65,6 +63,16 @@ func (c *checker) modelSettings(s *Scenario, r *raw) {
 		c.add("inputs.gradient_c_per_km", "is not used when [[layers]] give the geotherm; remove it or the layers")
 		delete(r.Inputs, "gradient_c_per_km")
 	}
+}
+
+// Geotherm returns the layered geotherm of m in SI units (depths m,
+// gradients K/m), or an error from heatmodel.NewProfile.
+func (m Model) Geotherm() (heatmodel.Profile, error) {
+	hl := make([]heatmodel.Layer, len(m.Layers))
+	for i, l := range m.Layers {
+		hl[i] = heatmodel.Layer{Bottom: l.BottomKm * 1000, Gradient: l.GradientCPerKm / 1000}
+	}
+	return heatmodel.NewProfile(hl)
 }
 
 // kmText rewrites the metre and K/m figures of a heatmodel layer message
@@ -143,17 +151,13 @@ func (c *checker) crossChecks(s *Scenario) {
 // useful heat: the minimum useful temperature is reached, even in the
 // hottest case, only below the maximum depth.
 func (c *checker) hotRockColumn(s *Scenario, bounds func(string) (float64, float64, bool)) {
-	tsLo, tsHi, _ := bounds("surface_temp_c")
+	_, tsHi, _ := bounds("surface_temp_c")
 	tmLo, _, _ := bounds("min_useful_temp_c")
 	topLo, _, _ := bounds("top_depth_km")
 	_, zMax, _ := bounds("max_depth_km")
 	var prof heatmodel.Profile
 	if s.Model.Layered {
-		var hl []heatmodel.Layer
-		for _, l := range s.Model.Layers {
-			hl = append(hl, heatmodel.Layer{Bottom: l.BottomKm * 1000, Gradient: l.GradientCPerKm / 1000})
-		}
-		p, err := heatmodel.NewProfile(hl)
+		p, err := s.Model.Geotherm()
 		if err != nil {
 			return // reported with the layers
 		}
@@ -162,7 +166,6 @@ func (c *checker) hotRockColumn(s *Scenario, bounds func(string) (float64, float
 		_, gHi, _ := bounds("gradient_c_per_km")
 		prof = heatmodel.UniformProfile(gHi / 1000)
 	}
-	_ = tsLo
 	z1 := math.Max(prof.Depth(tmLo-tsHi)/1000, topLo) // km, shallowest possible
 	if z1 >= zMax {
 		c.add("inputs.max_depth_km", "reaches at most %g km, but even the hottest trial reaches min_useful_temp_c only at %.3g km: no trial has useful heat; drill deeper, or lower min_useful_temp_c", zMax, z1)
