@@ -1,4 +1,4 @@
-package rockheat
+package rockheat_test
 
 import (
 	"fmt"
@@ -10,6 +10,7 @@ import (
 
 	"gonum.org/v1/gonum/stat/distuv"
 
+	"rockheat"
 	"rockheat/heatmodel"
 	"rockheat/sampler"
 	"rockheat/scenarios"
@@ -70,7 +71,7 @@ func TestLognormalProduct(t *testing.T) {
 			s2 += math.Pow((hi-lo)/(2*z), 2)
 		}
 		ref := distuv.LogNormal{Mu: mu, Sigma: math.Sqrt(s2)}
-		res, err := Estimate(s, Options{})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -112,7 +113,7 @@ func TestChainIdentities(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	res, err := Estimate(s, Options{Trials: 3000, KeepSamples: true})
+	res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 3000, KeepSamples: true})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -147,9 +148,9 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 		t.Fatal(err)
 	}
 	// The streaming route merges per-worker sketches: also bit-identical.
-	var stream *Result
+	var stream *rockheat.Result
 	for _, w := range []int{1, 3} {
-		res, err := Estimate(s, Options{Trials: 200_001, Workers: w, Stream: true})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w, Stream: true})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -164,9 +165,9 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 			}
 		}
 	}
-	var first *Result
+	var first *rockheat.Result
 	for _, w := range []int{1, 2, 8} {
-		res, err := Estimate(s, Options{Trials: 200_001, Workers: w, KeepSamples: true})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w, KeepSamples: true})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -201,7 +202,7 @@ func BenchmarkEstimate(b *testing.B) {
 	for _, n := range []int{1_000, 100_000, 1_000_000, 10_000_000} {
 		b.Run(fmt.Sprintf("trials=%d", n), func(b *testing.B) {
 			for b.Loop() {
-				if _, err := Estimate(s, Options{Trials: n}); err != nil {
+				if _, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: n}); err != nil {
 					b.Fatal(err)
 				}
 			}
@@ -220,12 +221,12 @@ func TestStreamingMatchesExact(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	s.Sampling = sampler.Random
-	exact, err := Estimate(s, Options{Trials: 300_000})
+	s.Run.Sampling = sampler.Random
+	exact, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 300_000})
 	if err != nil {
 		t.Fatal(err)
 	}
-	str, err := Estimate(s, Options{Trials: 300_000, Stream: true})
+	str, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 300_000, Stream: true})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -260,7 +261,7 @@ func TestPrecisionStops(t *testing.T) {
 	}
 	var trials []int
 	for _, w := range []int{1, 2} {
-		res, err := Estimate(s, Options{Trials: 10_000, Precision: 0.01, Workers: w})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 10_000, Precision: 0.01, Workers: w})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -296,7 +297,7 @@ func TestSwings(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	res, err := Estimate(s, Options{Trials: 2000})
+	res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 2000})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -347,7 +348,7 @@ func BenchmarkEstimateKinds(b *testing.B) {
 	for name, s := range map[string]*scenarios.Scenario{"if97-exergy-correlated": corr, "hot-rock": hot} {
 		b.Run(name, func(b *testing.B) {
 			for b.Loop() {
-				if _, err := Estimate(s, Options{Trials: 100_000}); err != nil {
+				if _, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 100_000}); err != nil {
 					b.Fatal(err)
 				}
 			}
@@ -356,7 +357,7 @@ func BenchmarkEstimateKinds(b *testing.B) {
 }
 
 // TestPrecisionSensitivitySample: a run to a precision computes its
-// sensitivities on its first SensitivityTrials trials, which are the same
+// sensitivities on its first rockheat.SensitivityTrials trials, which are the same
 // draws as a streaming run of exactly that many (per-batch streams depend
 // only on the seed and the batch index), so both give identical rank
 // correlations.
@@ -367,16 +368,16 @@ func TestPrecisionSensitivitySample(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	prec, err := Estimate(s, Options{Trials: 10_000, Precision: 0.01})
+	prec, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 10_000, Precision: 0.01})
 	if err != nil {
 		t.Fatal(err)
 	}
-	str, err := Estimate(s, Options{Trials: SensitivityTrials, Stream: true})
+	str, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: rockheat.SensitivityTrials, Stream: true})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if prec.SensitivityN != SensitivityTrials {
-		t.Fatalf("sensitivity sample of %d trials, want %d", prec.SensitivityN, SensitivityTrials)
+	if prec.SensitivityN != rockheat.SensitivityTrials {
+		t.Fatalf("sensitivity sample of %d trials, want %d", prec.SensitivityN, rockheat.SensitivityTrials)
 	}
 	if !reflect.DeepEqual(prec.Sensitivity, str.Sensitivity) {
 		t.Errorf("sensitivities differ:\n%+v\n%+v", prec.Sensitivity[0], str.Sensitivity[0])

@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"rockheat"
+	"rockheat/sampler"
 	"rockheat/scenarios"
 )
 
@@ -35,7 +36,7 @@ life_years = 30
 		fmt.Println(err)
 		return
 	}
-	res, err := rockheat.Estimate(s, rockheat.Options{})
+	res, err := rockheat.Estimate(&s.Run, rockheat.Options{})
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -47,4 +48,43 @@ life_years = 30
 	}
 	// Output:
 	// P90 23.6, P50 40.3, P10 65.2 MWe
+}
+
+// ExampleEstimate_inGo builds a run in Go, without a scenario file: each
+// input is a Quantity, a distribution in a named unit (a zero Unit would
+// mean the unit scenario files use). Estimate checks it exactly as it
+// checks a file, so a missing input is an error, not a zero.
+func ExampleEstimate_inGo() {
+	area, _ := sampler.NewTriangular(2, 4, 8)     // km²
+	temp, _ := sampler.NewUniform(200, 240)       // °C
+	recovery, _ := sampler.NewUniform(0.08, 0.20) // fraction
+	m := &rockheat.Reservoir{
+		Area:                 rockheat.Uncertain(area, rockheat.SquareKilometre),
+		Thickness:            rockheat.Fixed(1000, rockheat.Metre),
+		ReservoirTemp:        rockheat.Uncertain(temp, rockheat.Celsius),
+		Porosity:             rockheat.Fixed(0.05, rockheat.Fraction),
+		RockDensity:          rockheat.Fixed(2650, rockheat.KgPerCubicMetre),
+		RockHeatCapacity:     rockheat.Fixed(900, rockheat.JPerKgK),
+		FluidDensity:         rockheat.Fixed(850, rockheat.KgPerCubicMetre),
+		FluidHeatCapacity:    rockheat.Fixed(4600, rockheat.JPerKgK),
+		RecoveryFactor:       rockheat.Uncertain(recovery, rockheat.Fraction),
+		ConversionEfficiency: rockheat.Fixed(0.11, rockheat.Fraction),
+		CapacityFactor:       rockheat.Fixed(0.9, rockheat.Fraction),
+		Life:                 rockheat.Fixed(30, rockheat.Year),
+	}
+	run := &rockheat.Run{Title: "Example prospect (invented)", Trials: 20000, Seed: 7, Model: m}
+	res, err := rockheat.Estimate(run, rockheat.Options{})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	mwe := res.Outputs[3]
+	fmt.Printf("%s: P90 %.1f, P50 %.1f, P10 %.1f %s\n", mwe.Spec.Name, mwe.Summary.P90, mwe.Summary.P50, mwe.Summary.P10, mwe.Spec.Unit)
+
+	m.Thickness = rockheat.Quantity{} // forgotten
+	_, err = rockheat.Estimate(run, rockheat.Options{})
+	fmt.Println(err)
+	// Output:
+	// electric_power: P90 23.6, P50 40.3, P10 65.2 MWe
+	// thickness_m: missing: the reservoir thickness (m) is required
 }

@@ -1,23 +1,24 @@
-package rockheat
+package rockheat_test
 
 import (
 	"math"
 	"strings"
 	"testing"
 
+	"rockheat"
 	"rockheat/heatmodel/water"
 )
 
-func estimateFixed(t *testing.T, src string) *Result {
+func estimateFixed(t *testing.T, src string) *rockheat.Result {
 	t.Helper()
-	res, err := Estimate(mustParse(t, src), Options{Trials: 8})
+	res, err := rockheat.Estimate(&mustParse(t, src).Run, rockheat.Options{Trials: 8})
 	if err != nil {
 		t.Fatal(err)
 	}
 	return res
 }
 
-func p50(t *testing.T, r *Result, name string) float64 {
+func p50(t *testing.T, r *rockheat.Result, name string) float64 {
 	t.Helper()
 	for _, o := range r.Outputs {
 		if o.Spec.Name == name {
@@ -198,12 +199,12 @@ capacity_factor = 0.9
 life_years = 25
 %s
 `
-	one, err := Estimate(mustParse(t, strings.Replace(strings.Replace(base, "%s", "gradient_c_per_km = 32", 1), "%s", "", 1)), Options{Trials: 5000})
+	one, err := rockheat.Estimate(&mustParse(t, strings.Replace(strings.Replace(base, "%s", "gradient_c_per_km = 32", 1), "%s", "", 1)).Run, rockheat.Options{Trials: 5000})
 	if err != nil {
 		t.Fatal(err)
 	}
 	layers := "[[layers]]\nbottom_km = 1.5\ngradient_c_per_km = 32\n[[layers]]\nbottom_km = 4\ngradient_c_per_km = 32\n"
-	lay, err := Estimate(mustParse(t, strings.Replace(strings.Replace(base, "%s", "", 1), "%s", layers, 1)), Options{Trials: 5000})
+	lay, err := rockheat.Estimate(&mustParse(t, strings.Replace(strings.Replace(base, "%s", "", 1), "%s", layers, 1)).Run, rockheat.Options{Trials: 5000})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -59,3 +59,26 @@ func (c Column) Map(f func(float64) float64, buf []float64) Column {
 	}
 	return Vary(out)
 }
+
+// Affine returns a column with every value v mapped to v·scale + offset,
+// writing into buf when c varies. Either operation is skipped when it is
+// the identity (scale 1 or offset 0), so that a pure scaling or a pure
+// shift rounds once, exactly as Scale or Shift would.
+func (c Column) Affine(scale, offset float64, buf []float64) Column {
+	switch {
+	case scale == 1 && offset == 0:
+		return c
+	case offset == 0:
+		return c.Scale(scale, buf)
+	case scale == 1:
+		return c.Shift(offset, buf)
+	}
+	if c.Values == nil {
+		return Const(c.Const*scale + offset)
+	}
+	out := buf[:len(c.Values)]
+	for i, v := range c.Values {
+		out[i] = v*scale + offset
+	}
+	return Vary(out)
+}

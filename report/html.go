@@ -104,7 +104,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 	// One energy unit for every heat row, as in the text report.
 	eUnit, eScale := heatUnit(r)
 	for _, o := range r.Outputs {
-		if o.Spec.Group == DeclineGroup {
+		if o.Spec.Group == rockheat.DeclineGroup {
 			continue
 		}
 		unit, scale := o.Spec.Unit, 1.0

@@ -168,7 +168,7 @@ type jsonResult struct {
 // with unit, p90, p50, p10, mean, sd, min, max and confidence intervals),
 // zero_heat_trials, inputs, warnings and the caution.
 func JSON(w io.Writer, r *rockheat.Result) error {
-	jr := jsonResult{Title: r.Title, Kind: r.Kind, Fluid: r.Fluid, Conversion: r.Conversion, Trials: r.Trials, Seed: r.Seed, Sampling: r.Sampling,
+	jr := jsonResult{Title: r.Title, Kind: r.Kind.String(), Fluid: r.Fluid.String(), Conversion: r.Conversion.String(), Trials: r.Trials, Seed: r.Seed, Sampling: r.Sampling.String(),
 		Convention: Convention, Outputs: outputsObject(r.Outputs, r.Confidence), ZeroHeatTrials: r.ZeroHeatTrials,
 		Sensitivity: sensitivityObject(r.Sensitivity),
 		Method:      jsonMethod{Percentiles: "exact", LHSPerBatch: r.PerBatch, SensitivityTrials: r.SensitivityN},

@@ -24,10 +24,6 @@ import (
 // TornadoInputs is the largest number of inputs a tornado chart shows.
 const TornadoInputs = 8
 
-// DeclineGroup is the OutputSpec.Group of the hot-rock thermal power at
-// each report year, drawn by DeclineSVG.
-const DeclineGroup = "thermal_power_at"
-
 // chartFootnote is printed under every chart.
 const chartFootnote = "Estimates, not a reserves statement."
 
@@ -573,7 +569,7 @@ func (t *tornado) Plot(c draw.Canvas, p *plot.Plot) {
 
 // DeclineSVG writes, as an SVG document, the thermal power decline of a
 // hot-rock result: the P90, P50 and P10 of the thermal power (MWth) at
-// each report year, outputs of group DeclineGroup, with the band from
+// each report year, outputs of group rockheat.DeclineGroup, with the band from
 // P90 to P10 shaded. It returns an error when r has no such outputs (a
 // reservoir result).
 func DeclineSVG(w io.Writer, r *rockheat.Result) error {
@@ -587,7 +583,7 @@ func DeclineSVG(w io.Writer, r *rockheat.Result) error {
 func declineChart(r *rockheat.Result) (chart, error) {
 	outs := declineOutputs(r)
 	if len(outs) == 0 {
-		return chart{}, fmt.Errorf("this %s result has no thermal power decline (outputs of group %q); only hot-rock scenarios report the power at each year", r.Kind, DeclineGroup)
+		return chart{}, fmt.Errorf("this %s result has no thermal power decline (outputs of group %q); only hot-rock scenarios report the power at each year", r.Kind, rockheat.DeclineGroup)
 	}
 	unit := outs[0].Spec.Unit
 	p90, p50, p10 := make(plotter.XYs, len(outs)), make(plotter.XYs, len(outs)), make(plotter.XYs, len(outs))
@@ -652,11 +648,11 @@ func declineChart(r *rockheat.Result) (chart, error) {
 	return chart{p, 7 * vg.Inch, 4.4 * vg.Inch, footerHeight(len(caption), false), footer(r, caption, nil)}, nil
 }
 
-// declineOutputs returns the outputs of group DeclineGroup, by year.
+// declineOutputs returns the outputs of group rockheat.DeclineGroup, by year.
 func declineOutputs(r *rockheat.Result) []rockheat.Output {
 	var outs []rockheat.Output
 	for _, o := range r.Outputs {
-		if o.Spec.Group == DeclineGroup {
+		if o.Spec.Group == rockheat.DeclineGroup {
 			outs = append(outs, o)
 		}
 	}

@@ -53,14 +53,14 @@ var (
 		if err != nil {
 			return nil, err
 		}
-		return rockheat.Estimate(s, rockheat.Options{Trials: 2000, KeepSamples: true})
+		return rockheat.Estimate(&s.Run, rockheat.Options{Trials: 2000, KeepSamples: true})
 	})
 	hotRockRun = sync.OnceValues(func() (*rockheat.Result, error) {
 		s, err := scenarios.Parse("korrin.toml", []byte(hotRockScenario))
 		if err != nil {
 			return nil, err
 		}
-		return rockheat.Estimate(s, rockheat.Options{})
+		return rockheat.Estimate(&s.Run, rockheat.Options{})
 	})
 )
 
@@ -488,7 +488,7 @@ func TestDeclineSVG(t *testing.T) {
 	texts := parseSVG(t, b.String())
 	outs := declineOutputs(r)
 	if len(outs) != 5 {
-		t.Fatalf("%d outputs of group %s, want one per report year [0, 5, 10, 20, 30]", len(outs), DeclineGroup)
+		t.Fatalf("%d outputs of group %s, want one per report year [0, 5, 10, 20, 30]", len(outs), rockheat.DeclineGroup)
 	}
 	last := outs[len(outs)-1].Summary
 	var ys []float64

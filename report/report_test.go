@@ -25,7 +25,7 @@ func runExample(t *testing.T, name string, trials int) *rockheat.Result {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := rockheat.Estimate(s, rockheat.Options{Trials: trials})
+	r, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: trials})
 	if err != nil {
 		t.Fatal(err)
 	}

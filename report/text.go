@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"rockheat"
+	"rockheat/heatmodel"
 	"rockheat/sampler"
 )
 
@@ -110,7 +111,7 @@ func runNotes(r *rockheat.Result) []string {
 // zeroHeatNote says how many trials held no heat, and why a trial can.
 func zeroHeatNote(r *rockheat.Result) string {
 	what := "reservoir temperature at or below the reference temperature"
-	if r.Kind == "hot-rock" {
+	if r.Kind == heatmodel.KindHotRock {
 		what = "no rock at or above the minimum useful temperature between the top and the maximum depth"
 	}
 	if r.ZeroHeatTrials > 0 {
@@ -166,17 +167,17 @@ func sensitivityText(b *strings.Builder, r *rockheat.Result) {
 }
 
 func modelLine(r *rockheat.Result) string {
-	s := r.Kind
+	s := r.Kind.String()
 	switch r.Kind {
-	case "reservoir":
+	case heatmodel.KindReservoir:
 		s = "reservoir (volumetric heat in place)"
-	case "hot-rock":
+	case heatmodel.KindHotRock:
 		s = "hot-rock (conductive column, heat mined by circulated water)"
 	}
-	if r.Fluid == "if97" {
+	if r.Fluid == heatmodel.FluidIF97 {
 		s += ", fluid properties from IAPWS-IF97"
 	}
-	if r.Conversion == "exergy" {
+	if r.Conversion == heatmodel.ConversionExergy {
 		s += ", electric capacity by the exergy route"
 	}
 	return s
@@ -184,15 +185,15 @@ func modelLine(r *rockheat.Result) string {
 
 func methodText(r *rockheat.Result) string {
 	var fluid string
-	if r.Fluid == "if97" {
+	if r.Fluid == heatmodel.FluidIF97 {
 		fluid = " Fluid density and heat capacity: IAPWS-IF97 region 1 liquid at the sampled temperature and pressure" +
 			" (saturated liquid where the pressure is below saturation)."
 	}
 	switch r.Kind {
-	case "reservoir":
+	case heatmodel.KindReservoir:
 		s := "Volumetric heat in place (Muffler & Cataldi 1978; USGS Circular 790): Q = A·h·[(1−φ)·ρr·cr + φ·ρf·cf]·(Tr − Tref); " +
 			"recoverable heat Qr = R·Q; mean thermal power Qr/L; "
-		if r.Conversion == "exergy" {
+		if r.Conversion == heatmodel.ConversionExergy {
 			s += "electric capacity by the exergy route Pe = ηu·W/(F·L), W = m·[(h − h0) − T0·(s − s0)], m = Qr/(h − h0), " +
 				"with the wellhead fluid saturated liquid at Tr and the dead state liquid at Tref and 1 atm " +
 				"(USGS Circular 790; Williams et al. 2008; IAPWS-IF97 properties), ηu utilization efficiency, "
@@ -200,7 +201,7 @@ func methodText(r *rockheat.Result) string {
 			s += "electric capacity η·Qr/(F·L), with η conversion efficiency, "
 		}
 		return s + "R recovery factor, F capacity factor and L plant life (years of 365.25 days)." + fluid
-	case "hot-rock":
+	case heatmodel.KindHotRock:
 		return "Conductive rock column T(z) = Ts + G·z (or piecewise layers). Useful heat above the minimum useful temperature " +
 			"Tmin between z1, where the rock reaches Tmin (or the top depth if deeper), and the maximum depth z2: " +
 			"E0 = A·ρr·cr·∫(T − Tmin)dz, = A·ρr·cr·G·(z2 − z1)²/2 for one gradient. A circulated water flow V̇ mines it " +
@@ -211,14 +212,14 @@ func methodText(r *rockheat.Result) string {
 	return ""
 }
 
-func samplingName(s string) string {
-	switch s {
-	case "lhs":
+func samplingName(m sampler.Method) string {
+	switch m {
+	case sampler.LatinHypercube:
 		return "Latin hypercube"
-	case "random":
+	case sampler.Random:
 		return "plain Monte Carlo"
 	}
-	return s
+	return m.String()
 }
 
 // fig formats a figure with four significant digits.

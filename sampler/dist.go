@@ -303,3 +303,17 @@ var (
 	_ Distribution = Truncated{}
 	_ Distribution = PERT{}
 )
+
+// Restrict returns t truncated further, to [max(lo, t.lo), min(hi, t.hi)],
+// with its description kept. It computes the new limits' probabilities
+// from the same base distribution, exactly as a distribution built with
+// those limits would. It returns an error if the range is empty or keeps
+// almost no probability.
+func (t Truncated) Restrict(lo, hi float64) (Truncated, error) {
+	r, err := newTruncated(t.base, math.Max(lo, t.lo), math.Min(hi, t.hi), t.name)
+	if err != nil {
+		return Truncated{}, err
+	}
+	r.label = t.label
+	return r, nil
+}

@@ -2,8 +2,11 @@ package scenarios
 
 import (
 	"errors"
+	"reflect"
 	"strings"
 	"testing"
+
+	"rockheat"
 )
 
 const hotRock = `
@@ -33,11 +36,12 @@ func TestParseHotRock(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Model.Kind != KindHotRock || len(s.Model.ReportYears) != 3 || s.Model.ReportYears[1] != 15 {
-		t.Errorf("model = %+v", s.Model)
+	m, ok := s.Run.Model.(*rockheat.HotRock)
+	if !ok || len(m.ReportYears) != 3 || m.ReportYears[1] != 15 {
+		t.Errorf("model = %+v", s.Run.Model)
 	}
-	if top, ok := s.Input("top_depth_km"); !ok || top.Given || top.Dist.Quantile(0.5) != 0 {
-		t.Errorf("top_depth_km default = %+v", top)
+	if top, ok := s.Input("top_depth_km"); ok {
+		t.Errorf("top_depth_km = %+v, want not given (the run defaults it)", top)
 	}
 	layered := strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
 		"[[layers]]\nbottom_km = 2\ngradient_c_per_km = 40\n[[layers]]\nbottom_km = 8\ngradient_c_per_km = 25\n"
@@ -45,8 +49,9 @@ func TestParseHotRock(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !s.Model.Layered || len(s.Model.Layers) != 2 || s.Model.Layers[1].GradientCPerKm != 25 {
-		t.Errorf("layers = %+v", s.Model)
+	m = s.Run.Model.(*rockheat.HotRock)
+	if len(m.Layers) != 2 || m.Layers[1].Gradient.Dist.Quantile(0.5) != 25 || m.Layers[1].Gradient.Unit != rockheat.CelsiusPerKm {
+		t.Errorf("layers = %+v", m.Layers)
 	}
 	if _, ok := s.Input("gradient_c_per_km"); ok {
 		t.Error("a layered scenario keeps gradient_c_per_km")
@@ -117,12 +122,8 @@ func TestCorrelationMatrix(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Correlation == nil {
-		t.Fatal("no correlation matrix")
-	}
-	// Sampled inputs in order: area_km2 (0), thickness_m, reservoir_temp_c,
-	// porosity (3), ...
-	if got := s.Correlation.At(0, 3); got != -0.4 {
-		t.Errorf("matrix(area, porosity) = %g, want -0.4", got)
+	want := []rockheat.Correlation{{Inputs: [2]string{"porosity", "area_km2"}, Rank: -0.4}}
+	if !reflect.DeepEqual(s.Run.Correlations, want) {
+		t.Errorf("correlations = %+v, want %+v", s.Run.Correlations, want)
 	}
 }

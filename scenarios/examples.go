@@ -35,7 +35,7 @@ func Examples() []Example {
 		name := strings.TrimSuffix(e.Name(), path.Ext(e.Name()))
 		ex := Example{Name: name, Text: text}
 		if s, err := Parse(name, text); err == nil {
-			ex.Title = s.Title
+			ex.Title = s.Run.Title
 		}
 		out = append(out, ex)
 	}

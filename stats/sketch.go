@@ -175,7 +175,7 @@ func (s *Sketch) Exceedance(p float64) float64 {
 // ends are the order statistics of the same binomial ranks
 // (QuantileBounds). It panics if opt is invalid.
 func (s *Sketch) Summary(opt Options) Summary {
-	level := opt.level()
+	level := opt.Level()
 	return build(int(s.n), int(s.nan), s.at, s.mom, level)
 }
 

@@ -33,8 +33,9 @@ func (o Options) Validate() error {
 	return fmt.Errorf("confidence level %g is outside (0, 1); give a probability such as 0.95", c)
 }
 
-// level returns the confidence level, panicking if o is invalid.
-func (o Options) level() float64 {
+// Level returns the confidence level of o: Confidence, or
+// DefaultConfidence for 0. It panics if o is invalid.
+func (o Options) Level() float64 {
 	if err := o.Validate(); err != nil {
 		panic("stats: " + err.Error())
 	}
@@ -87,7 +88,7 @@ type Summary struct {
 // time (radix sort) and 16 bytes of scratch memory per value. It panics if
 // opt is invalid.
 func Summarize(x []float64, opt Options) Summary {
-	level := opt.level()
+	level := opt.Level()
 	nan := 0
 	for i, v := range x {
 		if v != v {

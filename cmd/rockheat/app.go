@@ -12,6 +12,7 @@ import (
 	"github.com/urfave/cli/v2"
 
 	"rockheat"
+	"rockheat/heatmodel"
 	"rockheat/report"
 	"rockheat/scenarios"
 )
@@ -31,11 +32,11 @@ func usagef(format string, args ...any) error { return usageError{fmt.Errorf(for
 func exitCode(err error) int {
 	var ue usageError
 	var ps scenarios.Problems
-	var oe *rockheat.OptionError
+	var ie rockheat.InputErrors
 	switch {
 	case err == nil:
 		return exitOK
-	case errors.As(err, &ue), errors.As(err, &ps), errors.As(err, &oe):
+	case errors.As(err, &ue), errors.As(err, &ps), errors.As(err, &ie):
 		return exitBadInput
 	}
 	return exitFailure
@@ -190,10 +191,10 @@ func runCommand() *cli.Command {
 			if prog != nil {
 				opt.Progress = prog.update
 			}
-			res, err := rockheat.Estimate(s, opt)
+			res, err := rockheat.Estimate(&s.Run, opt)
 			prog.clear()
 			if err != nil {
-				return err
+				return flagError(err)
 			}
 			if path := c.String("samples"); path != "" {
 				if err := report.WriteFile(path, func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
@@ -211,6 +212,29 @@ func runCommand() *cli.Command {
 			return render(c.App.Writer, res)
 		},
 	}
+}
+
+// optionFlags names the flag of each rockheat.Options field.
+var optionFlags = map[string]string{"Trials": "--trials", "MaxTrials": "--max-trials", "KeepSamples": "--samples",
+	"Precision": "--precision", "Workers": "--workers", "Seed": "--seed"}
+
+// flagError words an option error of the library in the command's flags,
+// as a usage error; other errors pass through.
+func flagError(err error) error {
+	var oe *rockheat.OptionError
+	if !errors.As(err, &oe) {
+		return err
+	}
+	var flags []string
+	for _, o := range oe.Options {
+		if f, ok := optionFlags[o]; ok {
+			flags = append(flags, f)
+		}
+	}
+	if len(flags) == 0 {
+		return usageError{errors.New(oe.Msg)}
+	}
+	return usagef("%s: %s", strings.Join(flags, " with "), oe.Msg)
 }
 
 // writePlots writes the charts of res into dir: the exceedance curve and
@@ -234,7 +258,7 @@ func writePlots(dir string, res *rockheat.Result) error {
 			}
 		}
 	}
-	if res.Kind == "hot-rock" {
+	if res.Kind == heatmodel.KindHotRock {
 		return report.WriteFile(filepath.Join(dir, "decline.svg"), func(w io.Writer) error { return report.DeclineSVG(w, res) })
 	}
 	return nil
@@ -271,7 +295,7 @@ func validateCommand() *cli.Command {
 				case err != nil:
 					errs = append(errs, err)
 				default:
-					fmt.Fprintf(c.App.Writer, "%s: ok (%s, %d inputs, %d trials)\n", s.Path, s.Model.Kind, len(s.Inputs), s.Trials)
+					fmt.Fprintf(c.App.Writer, "%s: ok (%s, %d inputs, %d trials)\n", s.Path, s.Run.Model.Kind(), s.InputCount(), s.Run.Trials)
 				}
 			}
 			if len(errs) > 0 {

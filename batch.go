@@ -1,0 +1,137 @@
+package rockheat
+
+import (
+	"sync"
+	"sync/atomic"
+
+	"rockheat/heatmodel"
+	"rockheat/sampler"
+)
+
+// batches draws and evaluates batches [from, to) of the plan on the
+// workers.
+func (r *run) batches(from, to int) error {
+	var (
+		next     atomic.Int64
+		wg       sync.WaitGroup
+		errOnce  sync.Once
+		firstErr error
+	)
+	next.Store(int64(from))
+	for w := 0; w < min(r.s.workers, to-from); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			if err := r.newWorker(w).work(&next, to); err != nil {
+				errOnce.Do(func() { firstErr = err })
+			}
+		}()
+	}
+	wg.Wait()
+	return firstErr
+}
+
+// worker is one goroutine's share of a run: its evaluator, with the fixed
+// inputs set once, and its buffers.
+type worker struct {
+	r    *run
+	w    int // index, for the worker's sketches
+	ev   evaluator
+	cols []*heatmodel.Column // the evaluator's input columns, by field
+	// si[j] holds the SI values of sampled input j.
+	si                [][]float64
+	in, out           [][]float64 // the current batch's draws and outputs
+	localIn, localOut [][]float64 // where they go when nothing keeps them
+}
+
+func (r *run) newWorker(w int) *worker {
+	size := min(sampler.BatchSize, r.plan.Trials())
+	wk := &worker{r: r, w: w,
+		si:      columns(len(r.sampled), size),
+		in:      make([][]float64, len(r.sampled)),
+		out:     make([][]float64, len(r.specs)),
+		localIn: columns(len(r.sampled), size), localOut: columns(len(r.specs), size)}
+	wk.ev, wk.cols = r.newEvaluator()
+	return wk
+}
+
+// newEvaluator returns an evaluator of the run's model with its fixed
+// inputs set, and its input columns by field.
+func (r *run) newEvaluator() (evaluator, []*heatmodel.Column) {
+	ev := r.c.run.Model.newEvaluator()
+	cols := ev.columns()
+	for _, in := range r.c.inputs {
+		if in.fixed {
+			*cols[in.fi] = in.unit.column(heatmodel.Const(in.dist.Quantile(0.5)), nil)
+		}
+	}
+	return ev, cols
+}
+
+// work processes batches until none is left below to.
+func (wk *worker) work(next *atomic.Int64, to int) error {
+	r := wk.r
+	for {
+		b := int(next.Add(1) - 1)
+		if b >= to {
+			return nil
+		}
+		start, n := r.plan.BatchRange(b)
+		wk.place(start, n)
+		if err := r.plan.Fill(b, wk.in); err != nil {
+			return err
+		}
+		for j, in := range r.sampled {
+			*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), wk.si[j])
+		}
+		z, err := wk.ev.evaluate(n, wk.out)
+		if err != nil {
+			return err
+		}
+		r.saturated.Add(int64(wk.ev.saturated()))
+		for j, sp := range r.specs {
+			if sp.Scale != 1 {
+				inv := 1 / sp.Scale
+				for i := range wk.out[j] {
+					wk.out[j][i] *= inv
+				}
+			}
+			if r.sketches != nil {
+				r.sketches[wk.w][j].AddSlice(wk.out[j])
+			}
+		}
+		r.zero.Add(int64(z))
+		d := r.done.Add(int64(n))
+		if r.s.Progress != nil {
+			r.progMu.Lock()
+			r.s.Progress(int(d), r.planned)
+			r.progMu.Unlock()
+		}
+	}
+}
+
+// place points the batch's input and output columns where they are kept:
+// every trial, the sensitivity sample, or the worker's own buffers.
+func (wk *worker) place(start, n int) {
+	r := wk.r
+	for j := range wk.in {
+		switch {
+		case r.keepIn != nil:
+			wk.in[j] = r.keepIn[j][start : start+n]
+		case start+n <= r.sensN:
+			wk.in[j] = r.sensIn[j][start : start+n]
+		default:
+			wk.in[j] = wk.localIn[j][:n]
+		}
+	}
+	for j := range wk.out {
+		switch {
+		case r.exactOut != nil:
+			wk.out[j] = r.exactOut[j][start : start+n]
+		case start+n <= r.sensN:
+			wk.out[j] = r.sensOut[j][start : start+n]
+		default:
+			wk.out[j] = wk.localOut[j][:n]
+		}
+	}
+}

@@ -1,0 +1,61 @@
+package rockheat
+
+import (
+	"rockheat/heatmodel"
+)
+
+// Model is the physics of a run with its typed inputs: *Reservoir or
+// *HotRock. Each input is a Quantity field; Fields lists those the model
+// takes in its current settings.
+type Model interface {
+	// Kind returns the model kind.
+	Kind() heatmodel.Kind
+	// Fields returns the inputs the model takes, in the order reports
+	// list them.
+	Fields() []Field
+	// Settings returns the fluid property source and, for a model with a
+	// choice of route, the conversion route.
+	Settings() (heatmodel.FluidSource, heatmodel.Conversion)
+
+	outputs() []OutputSpec
+	check(p *problems, c *checked)
+	newEvaluator() evaluator
+}
+
+// evaluator evaluates batches of one model on one goroutine. Before each
+// batch the caller sets the SI column of every given field at the
+// pointers columns returns (in the order of the model's Fields).
+type evaluator interface {
+	columns() []*heatmodel.Column
+	// evaluate fills out (one slice per output, SI units) for n trials
+	// and returns the number of trials without heat.
+	evaluate(n int, out [][]float64) (zeroHeat int, err error)
+	// saturated returns, and resets, the count of trials whose IF97
+	// fluid state was taken at saturation.
+	saturated() int
+}
+
+// dsts returns the column pointers of fields.
+func dsts(fields []Field) []*heatmodel.Column {
+	d := make([]*heatmodel.Column, len(fields))
+	for i, f := range fields {
+		d[i] = f.dst
+	}
+	return d
+}
+
+// OutputSpec names one model output and its unit in reports.
+type OutputSpec struct {
+	Name  string  // JSON key, e.g. "heat_in_place"
+	Unit  string  // unit of reported values: "J", "MWth", "MWe", "years"
+	Doc   string  // a few words for the text report
+	Scale float64 // reported value = SI value / Scale
+	// Group, if not empty, gathers outputs reported as one list, each at
+	// its Year (DeclineGroup: the hot-rock power at each report year).
+	Group string
+	Year  float64
+}
+
+// DeclineGroup is the OutputSpec.Group of the hot-rock thermal power at
+// each report year, and its key in JSON.
+const DeclineGroup = "thermal_power_at"

@@ -1,0 +1,202 @@
+package rockheat
+
+import (
+	"rockheat/heatmodel"
+)
+
+// Reservoir is the volumetric reservoir model (heatmodel.Reservoir) with
+// its inputs. Field comments give the SI unit of each quantity and, in
+// brackets, the input's own unit: a Quantity with a zero Unit is in that.
+type Reservoir struct {
+	// Fluid selects fluid density and heat capacity from the inputs
+	// (FluidDensity, FluidHeatCapacity) or from IAPWS-IF97 at the
+	// reservoir temperature and ReservoirPressure or Depth.
+	Fluid heatmodel.FluidSource
+	// Conversion selects the route to electric capacity: a
+	// ConversionEfficiency, or the exergy route with a
+	// UtilizationEfficiency.
+	Conversion heatmodel.Conversion
+
+	Area              Quantity // m² (km²), > 0
+	Thickness         Quantity // m, > 0
+	ReservoirTemp     Quantity // K (°C), mean reservoir temperature
+	ReferenceTemp     Quantity // K (°C), reference temperature; default 15 °C
+	Porosity          Quantity // fraction, [0, 1)
+	RockDensity       Quantity // kg/m³, > 0
+	RockHeatCapacity  Quantity // J/(kg·K), > 0
+	FluidDensity      Quantity // kg/m³, > 0; with FluidFixed
+	FluidHeatCapacity Quantity // J/(kg·K), > 0; with FluidFixed
+	// ReservoirPressure (Pa (MPa), > 0) or Depth (m, > 0, for a
+	// hydrostatic pressure, heatmodel.Hydrostatic): one of them with
+	// FluidIF97.
+	ReservoirPressure     Quantity
+	Depth                 Quantity
+	RecoveryFactor        Quantity // fraction, (0, 1]
+	ConversionEfficiency  Quantity // fraction, (0, 1]; with ConversionEfficiency
+	UtilizationEfficiency Quantity // fraction, (0, 1]; with ConversionExergy
+	CapacityFactor        Quantity // fraction, (0, 1]
+	Life                  Quantity // s (years), > 0
+}
+
+// Kind returns heatmodel.KindReservoir.
+func (*Reservoir) Kind() heatmodel.Kind { return heatmodel.KindReservoir }
+
+// Settings returns m's fluid property source and conversion route.
+func (m *Reservoir) Settings() (heatmodel.FluidSource, heatmodel.Conversion) {
+	return m.Fluid, m.Conversion
+}
+
+// Fields returns the inputs of m in its settings.
+func (m *Reservoir) Fields() []Field { return m.fields(&reservoirEval{}) }
+
+// fields lists m's inputs, their SI columns bound to those of e.
+func (m *Reservoir) fields(e *reservoirEval) []Field {
+	r := &e.r
+	fs := []Field{
+		required(&m.Area, &r.Area, "area", SquareKilometre, "reservoir area", positive),
+		required(&m.Thickness, &r.Thickness, "thickness", Metre, "reservoir thickness", positive),
+		required(&m.ReservoirTemp, &r.ReservoirTemp, "reservoir_temp", Celsius, "mean reservoir temperature", aboveZeroK),
+		defaulted(required(&m.ReferenceTemp, &r.ReferenceTemp, "reference_temp", Celsius,
+			"reference (rejection, dead-state) temperature", aboveZeroK), 15),
+		required(&m.Porosity, &r.Porosity, "porosity", Fraction, "porosity", porosity),
+		required(&m.RockDensity, &r.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", positive),
+		required(&m.RockHeatCapacity, &r.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", positive),
+	}
+	switch m.Fluid {
+	case heatmodel.FluidFixed:
+		fs = append(fs,
+			required(&m.FluidDensity, &r.FluidDensity, "fluid_density", KgPerCubicMetre, "fluid density", positive),
+			required(&m.FluidHeatCapacity, &r.FluidHeatCapacity, "fluid_heat_capacity", JPerKgK, "fluid specific heat capacity", positive))
+	case heatmodel.FluidIF97:
+		fs = append(fs,
+			alternative(required(&m.ReservoirPressure, &e.pressure, "reservoir_pressure", Megapascal, "reservoir fluid pressure", positive)),
+			alternative(required(&m.Depth, &e.depth, "depth", Metre,
+				"depth of the reservoir's middle, for a hydrostatic pressure", positive)))
+	}
+	fs = append(fs, required(&m.RecoveryFactor, &r.RecoveryFactor, "recovery_factor", Fraction,
+		"fraction of heat in place recovered at the wellhead", fraction))
+	switch m.Conversion {
+	case heatmodel.ConversionEfficiency:
+		fs = append(fs, required(&m.ConversionEfficiency, &r.ConversionEfficiency, "conversion_efficiency", Fraction,
+			"heat-to-electricity conversion efficiency", fraction))
+	case heatmodel.ConversionExergy:
+		fs = append(fs, required(&m.UtilizationEfficiency, &e.utilization, "utilization_efficiency", Fraction,
+			"utilization efficiency of the available work", fraction))
+	}
+	return append(fs, plantFields(&m.CapacityFactor, &r.CapacityFactor, &m.Life, &r.Life)...)
+}
+
+// plantFields are the plant inputs every kind ends with.
+func plantFields(cf *Quantity, cfDst *heatmodel.Column, life *Quantity, lifeDst *heatmodel.Column) []Field {
+	return []Field{
+		required(cf, cfDst, "capacity_factor", Fraction, "fraction of the time the plant runs at full output", fraction),
+		required(life, lifeDst, "life", Year, "plant life", positive),
+	}
+}
+
+func (*Reservoir) outputs() []OutputSpec {
+	return []OutputSpec{
+		{Name: "heat_in_place", Unit: "J", Doc: "heat in place", Scale: 1},
+		{Name: "recoverable_heat", Unit: "J", Doc: "recoverable heat", Scale: 1},
+		{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega},
+		{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega},
+	}
+}
+
+// check reports a missing or doubled way to the IF97 fluid pressure, and
+// states outside IAPWS-IF97 region 1.
+func (m *Reservoir) check(p *problems, c *checked) {
+	if m.Fluid == heatmodel.FluidIF97 {
+		pf, zf := fieldOf(c.fields, &m.ReservoirPressure), fieldOf(c.fields, &m.Depth)
+		switch hasP, hasZ := m.ReservoirPressure.Given(), m.Depth.Given(); {
+		case hasP && hasZ:
+			p.input(zf.label(), "give either %s or %s (for a hydrostatic pressure), not both", pf.label(), zf.label())
+		case !hasP && !hasZ:
+			p.add(&InputError{Input: pf.label(), Missing: true,
+				Msg: "fluid \"if97\" needs the fluid pressure: give " + pf.label() + ", or " + zf.label() + " for a hydrostatic pressure"})
+		}
+		if97Pressure(p, c, &m.ReservoirPressure)
+	}
+	if m.Fluid == heatmodel.FluidIF97 || m.Conversion == heatmodel.ConversionExergy {
+		if97Temperature(p, c, &m.ReservoirTemp)
+	}
+}
+
+// Limits of IAPWS-IF97 region 1 (compressed liquid), in °C and MPa.
+const (
+	if97MaxTempC     = 350 // 623.15 K
+	if97MaxPressureM = 100
+)
+
+// if97Temperature reports a temperature input q above IF97 region 1.
+func if97Temperature(p *problems, c *checked, q *Quantity) {
+	if _, hi, ok := c.support(q); ok && hi > if97MaxTempC {
+		p.input(fieldOf(c.fields, q).label(), "reaches %g °C, above the %d °C limit of IAPWS-IF97 region 1 (liquid water) that fluid = \"if97\" and conversion = \"exergy\" use; keep it at or below %d °C", hi, if97MaxTempC, if97MaxTempC)
+	}
+}
+
+// if97Pressure reports a pressure input q above IF97 region 1.
+func if97Pressure(p *problems, c *checked, q *Quantity) {
+	if _, hi, ok := c.support(q); ok && hi > if97MaxPressureM {
+		p.input(fieldOf(c.fields, q).label(), "reaches %g MPa, above the %d MPa limit of IAPWS-IF97 region 1; keep it at or below %d MPa", hi, if97MaxPressureM, if97MaxPressureM)
+	}
+}
+
+func (m *Reservoir) newEvaluator() evaluator {
+	e := &reservoirEval{fluid: m.Fluid, conversion: m.Conversion, hasPressure: m.ReservoirPressure.Given()}
+	e.dst = dsts(m.fields(e))
+	return e
+}
+
+// reservoirEval evaluates the reservoir model on one goroutine.
+type reservoirEval struct {
+	fluid                        heatmodel.FluidSource
+	conversion                   heatmodel.Conversion
+	hasPressure                  bool
+	r                            heatmodel.Reservoir
+	pressure, depth, utilization heatmodel.Column
+	fs                           heatmodel.FluidScratch
+	dst                          []*heatmodel.Column
+}
+
+func (e *reservoirEval) columns() []*heatmodel.Column { return e.dst }
+
+func (e *reservoirEval) saturated() int {
+	n := e.fs.Saturated
+	e.fs.Saturated = 0
+	return n
+}
+
+func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
+	r := e.r // the columns set for this batch; fluid steps replace some
+	if e.fluid == heatmodel.FluidIF97 {
+		p := e.pressure
+		if !e.hasPressure {
+			p = e.fs.HydrostaticColumn(n, e.depth)
+		}
+		var err error
+		if r.FluidDensity, r.FluidHeatCapacity, err = e.fs.LiquidProperties(n, p, r.ReservoirTemp); err != nil {
+			return 0, err
+		}
+	}
+	if e.conversion == heatmodel.ConversionExergy {
+		eff, err := e.fs.ExergyEfficiency(n, e.utilization, r.ReservoirTemp, r.ReferenceTemp)
+		if err != nil {
+			return 0, err
+		}
+		r.ConversionEfficiency = eff
+	}
+	return r.Evaluate(n, heatmodel.ReservoirOutputs{
+		HeatInPlace: out[0], RecoverableHeat: out[1], ThermalPower: out[2], ElectricPower: out[3],
+	}), nil
+}
+
+// fieldOf returns the field of quantity q.
+func fieldOf(fields []Field, q *Quantity) Field {
+	for _, f := range fields {
+		if f.Q == q {
+			return f
+		}
+	}
+	panic("rockheat: no field for a quantity of the model")
+}

@@ -1,0 +1,257 @@
+package scenarios
+
+import (
+	"errors"
+	"fmt"
+	"regexp"
+	"sort"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"rockheat"
+	"rockheat/heatmodel"
+	"rockheat/sampler"
+)
+
+// raw is the file as decoded; pointers tell given from left out.
+type raw struct {
+	Title string `toml:"title"`
+	Run   struct {
+		Trials   *int64  `toml:"trials"`
+		Seed     *int64  `toml:"seed"`
+		Sampling *string `toml:"sampling"`
+	} `toml:"run"`
+	Model struct {
+		Kind        *string   `toml:"kind"`
+		Fluid       *string   `toml:"fluid"`
+		Conversion  *string   `toml:"conversion"`
+		ReportYears []float64 `toml:"report_years"`
+	} `toml:"model"`
+	Inputs map[string]any `toml:"inputs"`
+	Layers []struct {
+		BottomKm       *float64 `toml:"bottom_km"`
+		GradientCPerKm *float64 `toml:"gradient_c_per_km"`
+	} `toml:"layers"`
+	Correlations []struct {
+		Inputs []string `toml:"inputs"`
+		Rank   *float64 `toml:"rank"`
+	} `toml:"correlations"`
+}
+
+var knownTopKeys = []string{"title", "run.trials", "run.seed", "run.sampling", "model.kind", "model.fluid",
+	"model.conversion", "model.report_years", "layers", "correlations"}
+
+// Parse checks the scenario text src, read from path (used in messages).
+// It returns every problem found, as Problems.
+func Parse(path string, src []byte) (*Scenario, error) {
+	var r raw
+	md, err := toml.Decode(string(src), &r)
+	if err != nil {
+		return nil, Problems{syntaxProblem(path, err)}
+	}
+	c := &checker{path: path, lines: indexLines(src), bad: map[string]bool{}}
+	for _, k := range md.Undecoded() {
+		key := k.String()
+		if len(k) > 2 && k[0] == "inputs" {
+			continue // parameters of a distribution table, checked in input
+		}
+		c.add(key, "unknown key%s; remove it or correct its spelling", suggest(key, knownTopKeys))
+	}
+	s := &Scenario{Path: path, Source: src}
+	run := &s.Run
+	run.Path, run.Title = path, strings.TrimSpace(r.Title)
+	if run.Title == "" {
+		c.add("title", "missing; give the prospect a title, e.g. title = \"Example prospect\"")
+	}
+	c.runSettings(run, &r)
+	run.Model = c.model(&r)
+	c.inputs(run.Model, r.Inputs)
+	c.correlationEntries(run, &r)
+	c.validate(run)
+	if len(c.problems) > 0 {
+		c.sort()
+		return nil, c.problems
+	}
+	return s, nil
+}
+
+// runSettings reads the [run] table.
+func (c *checker) runSettings(run *rockheat.Run, r *raw) {
+	run.Trials = rockheat.DefaultTrials
+	if r.Run.Trials != nil {
+		if t := *r.Run.Trials; t <= 0 {
+			c.add("run.trials", "= %d must be a positive number of trials (the default is %d)", t, rockheat.DefaultTrials)
+		} else {
+			run.Trials = int(min(t, rockheat.MaxTrials+1)) // above the limit: reported by Validate
+		}
+	}
+	run.Seed = DefaultSeed
+	if r.Run.Seed != nil {
+		if *r.Run.Seed < 0 {
+			c.add("run.seed", "= %d must be a whole number ≥ 0", *r.Run.Seed)
+		} else {
+			run.Seed = uint64(*r.Run.Seed)
+		}
+	}
+	run.Sampling = sampler.LatinHypercube
+	if r.Run.Sampling != nil {
+		switch *r.Run.Sampling {
+		case "lhs":
+		case "random":
+			run.Sampling = sampler.Random
+		default:
+			c.add("run.sampling", "= %q is not a sampling method; use \"lhs\" (Latin hypercube, the default) or \"random\"", *r.Run.Sampling)
+		}
+	}
+}
+
+// model reads the [model] table and the [[layers]] list.
+func (c *checker) model(r *raw) rockheat.Model {
+	kind := choice(c, "model.kind", r.Model.Kind, heatmodel.Kinds, heatmodel.KindReservoir)
+	fluid := choice(c, "model.fluid", r.Model.Fluid, heatmodel.FluidSources, heatmodel.FluidFixed)
+	conv := choice(c, "model.conversion", r.Model.Conversion, heatmodel.Conversions, heatmodel.ConversionEfficiency)
+	if kind != heatmodel.KindHotRock {
+		if r.Model.ReportYears != nil {
+			c.add("model.report_years", "applies to kind \"hot-rock\" only; remove it")
+		}
+		if len(r.Layers) > 0 {
+			c.add("layers", "[[layers]] apply to kind \"hot-rock\" only; remove them")
+		}
+		return &rockheat.Reservoir{Fluid: fluid, Conversion: conv}
+	}
+	if conv == heatmodel.ConversionExergy {
+		c.add("model.conversion", "= \"exergy\" applies to kind \"reservoir\" (it needs the produced fluid's state); use \"efficiency\" for kind \"hot-rock\"")
+	}
+	m := &rockheat.HotRock{Fluid: fluid, ReportYears: r.Model.ReportYears}
+	if r.Model.ReportYears != nil && len(r.Model.ReportYears) == 0 {
+		m.ReportYears = []float64{} // reported as empty by Validate
+	}
+	for i, l := range r.Layers {
+		if l.BottomKm == nil || l.GradientCPerKm == nil {
+			c.add(fmt.Sprintf("layers[%d]", i+1), "each layer needs bottom_km and gradient_c_per_km, e.g. { bottom_km = 2.5, gradient_c_per_km = 35 }")
+			continue
+		}
+		m.Layers = append(m.Layers, rockheat.Layer{Bottom: rockheat.Fixed(*l.BottomKm, rockheat.Kilometre),
+			Gradient: rockheat.Fixed(*l.GradientCPerKm, rockheat.CelsiusPerKm)})
+	}
+	if len(m.Layers) != len(r.Layers) {
+		m.Layers = nil // reported above; a partial geotherm would mislead the checks
+		c.bad["gradient_c_per_km"] = true
+	}
+	return m
+}
+
+// choice reads the value of a closed set at key, or returns def.
+func choice[T fmt.Stringer](c *checker, key string, v *string, valid []T, def T) T {
+	if v == nil {
+		return def
+	}
+	q := make([]string, len(valid))
+	for i, x := range valid {
+		if x.String() == *v {
+			return x
+		}
+		q[i] = fmt.Sprintf("%q", x.String())
+	}
+	c.add(key, "= %q is not one of %s", *v, strings.Join(q, ", "))
+	return def
+}
+
+// inputs reads the [inputs] table into the model's quantities.
+func (c *checker) inputs(m rockheat.Model, in map[string]any) {
+	fields := m.Fields()
+	byName := map[string]rockheat.Field{}
+	names := make([]string, len(fields))
+	for i, f := range fields {
+		byName[f.Name()] = f
+		names[i] = f.Name()
+	}
+	c.order = names
+	var keys []string
+	for name := range in {
+		keys = append(keys, name)
+	}
+	sort.Strings(keys)
+	for _, name := range keys {
+		f, ok := byName[name]
+		if !ok {
+			c.add("inputs."+name, "unknown input for model kind %q%s; the inputs it takes are %s", m.Kind(), suggest(name, names), strings.Join(names, ", "))
+			continue
+		}
+		if d, ok := c.distribution(name, in[name]); ok {
+			*f.Q = rockheat.Quantity{Dist: d}
+		} else {
+			c.bad[name] = true
+		}
+	}
+}
+
+// correlationEntries reads the [[correlations]] list.
+func (c *checker) correlationEntries(run *rockheat.Run, r *raw) {
+	for i, cr := range r.Correlations {
+		if len(cr.Inputs) != 2 || cr.Rank == nil {
+			c.add(fmt.Sprintf("correlations[%d]", i+1), "each correlation needs inputs = [\"a\", \"b\"] (two sampled inputs) and rank = a number in [-1, 1]")
+			continue
+		}
+		run.Correlations = append(run.Correlations, rockheat.Correlation{Inputs: [2]string{cr.Inputs[0], cr.Inputs[1]}, Rank: *cr.Rank})
+	}
+}
+
+// validate checks the run as rockheat.Estimate will, and words its
+// problems for the file: keys, lines, and fixes in TOML.
+func (c *checker) validate(run *rockheat.Run) {
+	err := run.Validate()
+	var es rockheat.InputErrors
+	if !errors.As(err, &es) {
+		return
+	}
+	for _, e := range es {
+		if e.Input == "" {
+			key := settingKey[e.Setting]
+			if e.Index > 0 {
+				key = fmt.Sprintf("%s[%d]", key, e.Index)
+			}
+			msg := e.Msg
+			if e.Unknown != "" {
+				msg += suggest(e.Unknown, c.order)
+			}
+			c.add(key, "%s", msg)
+			continue
+		}
+		if c.bad[e.Input] {
+			continue // reported as written
+		}
+		key := "inputs." + e.Input
+		msg := e.Msg
+		if e.Missing {
+			if _, ok := c.lines[key]; !ok {
+				c.lines[key] = c.lines["inputs"]
+			}
+			if strings.HasPrefix(msg, "missing:") {
+				msg += fmt.Sprintf("; add %s = <number>, or a distribution such as { dist = \"uniform\", min = ..., max = ... }", e.Input)
+			}
+		}
+		c.add(key, "%s", msg)
+	}
+}
+
+// settingKey maps the settings of rockheat.InputError to file keys.
+var settingKey = map[string]string{"model": "model", "trials": "run.trials", "correlations": "correlations",
+	"layers": "layers", "report_years": "model.report_years"}
+
+func syntaxProblem(path string, err error) Problem {
+	var pe toml.ParseError
+	if errors.As(err, &pe) {
+		return Problem{File: path, Line: pe.Position.Line, Msg: "TOML syntax: " + pe.Message + "; see https://toml.io for the syntax"}
+	}
+	msg := err.Error()
+	line := 0
+	if m := lineRE.FindStringSubmatch(msg); m != nil {
+		fmt.Sscan(m[1], &line)
+	}
+	msg = strings.TrimPrefix(msg, "toml: ")
+	return Problem{File: path, Line: line, Msg: msg}
+}
+
+var lineRE = regexp.MustCompile(`line (\d+)`)
