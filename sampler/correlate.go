@@ -13,6 +13,8 @@ import (
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"rockheat/stats/radix"
 )
 
 // Pair is a target Spearman rank correlation between the sampled inputs
@@ -353,76 +355,26 @@ func ImanConover(cols [][]float64, target *mat.SymDense, rng *rand.Rand) error {
 			floats.AddScaled(t, m.At(i, j), s[i])
 		}
 		for i, v := range t {
-			keys[i] = orderKey(v)&^rowMask | uint64(i)
+			keys[i] = radix.Key(v)&^rowMask | uint64(i)
 		}
-		sortKeys(keys, buf, idxBits/8)
+		keys, buf = sortInPlace(keys, buf, idxBits/8)
 		for i, v := range col {
-			vals[i] = orderKey(v)
+			vals[i] = radix.Key(v)
 		}
-		sortKeys(vals, buf, 0)
+		vals, buf = sortInPlace(vals, buf, 0)
 		for r, key := range keys {
-			col[key&rowMask] = fromOrderKey(vals[r])
+			col[key&rowMask] = radix.Float(vals[r])
 		}
 	}
 	return nil
 }
 
-// sortKeys sorts x in increasing order of its bytes from, from+1, …, 7
-// (counting from the least significant), by a least-significant-digit
-// radix sort, using buf (of the same length) as scratch. The sort is
-// stable, so keys equal in those bytes keep their order; from = 0 sorts
-// fully. Passes on a byte that all keys share are skipped.
-func sortKeys(x, buf []uint64, from int) {
-	if len(x) < 2 {
-		return
+// sortInPlace sorts x on its bytes from … 7 (radix.Sort) and returns it
+// sorted with the other buffer as scratch, so that the two can swap roles.
+func sortInPlace(x, buf []uint64, from int) (sorted, scratch []uint64) {
+	sorted, _ = radix.Sort(x, buf, from, nil, nil)
+	if &sorted[0] == &x[0] {
+		return x, buf
 	}
-	var count [8][256]int
-	for _, v := range x {
-		count[0][byte(v)]++
-		count[1][byte(v>>8)]++
-		count[2][byte(v>>16)]++
-		count[3][byte(v>>24)]++
-		count[4][byte(v>>32)]++
-		count[5][byte(v>>40)]++
-		count[6][byte(v>>48)]++
-		count[7][byte(v>>56)]++
-	}
-	src, dst := x, buf[:len(x)]
-	for d := from; d < len(count); d++ {
-		c := &count[d]
-		shift := 8 * d
-		if c[byte(src[0]>>shift)] == len(src) {
-			continue
-		}
-		sum := 0
-		for b, cb := range c {
-			c[b], sum = sum, sum+cb
-		}
-		for _, v := range src {
-			b := byte(v >> shift)
-			dst[c[b]] = v
-			c[b]++
-		}
-		src, dst = dst, src
-	}
-	if &src[0] != &x[0] {
-		copy(x, src)
-	}
-}
-
-// orderKey maps x to an unsigned integer in the same order as x (with
-// −0 < +0 and NaNs at the ends); fromOrderKey inverts it exactly.
-func orderKey(x float64) uint64 {
-	b := math.Float64bits(x)
-	if b>>63 == 1 {
-		return ^b
-	}
-	return b | 1<<63
-}
-
-func fromOrderKey(k uint64) float64 {
-	if k>>63 == 1 {
-		return math.Float64frombits(k &^ (1 << 63))
-	}
-	return math.Float64frombits(^k)
+	return buf, x
 }

@@ -34,13 +34,6 @@ func (m Method) String() string {
 // constant of the random streams: changing it changes every result.
 const BatchSize = 1 << 16
 
-// GlobalLHSLimit is the largest run whose Latin hypercube can be
-// stratified over all its trials at once (it holds a permutation of 4
-// bytes a trial per input). Larger runs, and plans made with PerBatch,
-// stratify each batch on its own: each batch is then an exact Latin
-// hypercube of its trials, and batches are independent of each other, so
-// a run can be extended batch by batch.
-const GlobalLHSLimit = 1 << 21
 
 // Config sets up a Plan.
 type Config struct {
@@ -51,8 +44,12 @@ type Config struct {
 	// the distributions (in their order), applied batch by batch with the
 	// Iman–Conover method; build it with BuildCorrelation.
 	Correlation *mat.SymDense
-	// PerBatch stratifies a Latin hypercube per batch even when the run
-	// is small enough to be stratified as a whole.
+	// PerBatch stratifies a Latin hypercube per batch: each batch is then
+	// an exact Latin hypercube of its trials, and batches are independent
+	// of each other, so a run can be extended batch by batch. Otherwise a
+	// Latin hypercube is stratified over all the trials at once, which
+	// holds a permutation of 4 bytes a trial per distribution in memory;
+	// callers bound such runs (rockheat.ExactLimit).
 	PerBatch bool
 }
 
@@ -75,7 +72,7 @@ func NewPlan(dists []Distribution, cfg Config) *Plan {
 		panic("sampler: NewPlan with trials < 1")
 	}
 	p := &Plan{dists: dists, trials: trials, seed: seed, method: cfg.Method, corr: scoresCorrelation(cfg.Correlation)}
-	if cfg.Method == LatinHypercube && !cfg.PerBatch && trials <= GlobalLHSLimit && trials > BatchSize {
+	if cfg.Method == LatinHypercube && !cfg.PerBatch && trials > BatchSize {
 		// One stream per input: the permutations are independent of each
 		// other and are drawn concurrently.
 		p.perm = make([][]int32, len(dists))

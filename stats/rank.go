@@ -5,6 +5,8 @@ import (
 	"math"
 	"math/bits"
 	"slices"
+
+	"rockheat/stats/radix"
 )
 
 // Ranks returns the ranks 1 … n of the values x, with tied values given
@@ -22,21 +24,21 @@ func Ranks(x []float64) []float64 {
 		if v != v {
 			panic("stats: Ranks of a column with NaN; drop the NaN trials first")
 		}
-		keys[i] = key(v)
+		keys[i] = radix.Key(v)
 		idx[i] = int32(i)
 	}
-	if n < radixMin {
+	if n < radix.MinLen {
 		slices.SortStableFunc(idx, func(a, b int32) int { return cmp.Compare(keys[a], keys[b]) })
 		for i, j := range idx {
-			keys[i] = key(x[j])
+			keys[i] = radix.Key(x[j])
 		}
 	} else {
-		keys, idx = radixSort(keys, make([]uint64, n), idx, make([]int32, n))
+		keys, idx = radix.Sort(keys, make([]uint64, n), 0, idx, make([]int32, n))
 	}
 	r := make([]float64, n)
 	for a := 0; a < n; {
 		b := a + 1
-		for b < n && unkey(keys[b]) == unkey(keys[a]) { // −0 ties +0
+		for b < n && radix.Float(keys[b]) == radix.Float(keys[a]) { // −0 ties +0
 			b++
 		}
 		avg := float64(a+b+1) / 2 // mean of the ranks a+1 … b

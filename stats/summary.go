@@ -5,6 +5,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"rockheat/stats/radix"
 )
 
 // DefaultConfidence is the coverage probability of confidence intervals
@@ -97,7 +99,7 @@ func Summarize(x []float64, opt Options) Summary {
 		}
 	}
 	s := x[nan:]
-	sortFloats(s)
+	radix.Float64s(s)
 	m := newMoments()
 	for _, v := range s {
 		m.add(v)

@@ -153,21 +153,3 @@ func TestOptionsValidate(t *testing.T) {
 		}
 	}
 }
-
-// TestSortFloats compares the radix sort with slices.Sort on values with
-// signed zeros, infinities, subnormals and ties.
-func TestSortFloats(t *testing.T) {
-	t.Parallel()
-	for _, n := range []int{10, radixMin, 5000, 100000} {
-		x := wideFloats(n, uint64(n))
-		for i := 0; i < n; i += 97 {
-			x[i] = []float64{0, math.Copysign(0, -1), math.Inf(1), math.Inf(-1), 5e-324, 1, 1}[i%7]
-		}
-		want := slices.Clone(x)
-		slices.Sort(want)
-		sortFloats(x)
-		if !slices.Equal(x, want) { // == treats −0 and +0 as equal
-			t.Errorf("n=%d: radix sort differs from slices.Sort", n)
-		}
-	}
-}
