@@ -114,24 +114,22 @@ func (wk *worker) work(next *atomic.Int64, to int) error {
 // every trial, the sensitivity sample, or the worker's own buffers.
 func (wk *worker) place(start, n int) {
 	r := wk.r
-	for j := range wk.in {
+	slot(wk.in, r.keepIn, r.sensIn, wk.localIn, start, n, r.sensN)
+	slot(wk.out, r.exactOut, r.sensOut, wk.localOut, start, n, r.sensN)
+}
+
+// slot sets dst[j] to trials [start, start+n) of all[j] when every trial
+// is kept (all not nil), else of sens[j] when they fall in the first sensN
+// trials, else to the first n values of local[j].
+func slot(dst, all, sens, local [][]float64, start, n, sensN int) {
+	for j := range dst {
 		switch {
-		case r.keepIn != nil:
-			wk.in[j] = r.keepIn[j][start : start+n]
-		case start+n <= r.sensN:
-			wk.in[j] = r.sensIn[j][start : start+n]
+		case all != nil:
+			dst[j] = all[j][start : start+n]
+		case start+n <= sensN:
+			dst[j] = sens[j][start : start+n]
 		default:
-			wk.in[j] = wk.localIn[j][:n]
-		}
-	}
-	for j := range wk.out {
-		switch {
-		case r.exactOut != nil:
-			wk.out[j] = r.exactOut[j][start : start+n]
-		case start+n <= r.sensN:
-			wk.out[j] = r.sensOut[j][start : start+n]
-		default:
-			wk.out[j] = wk.localOut[j][:n]
+			dst[j] = local[j][:n]
 		}
 	}
 }

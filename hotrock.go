@@ -162,16 +162,7 @@ type hotRockEval struct {
 	years                    int
 	h                        heatmodel.HotRock
 	fluidTemp, fluidPressure heatmodel.Column
-	fs                       heatmodel.FluidScratch
-	dst                      []*heatmodel.Column
-}
-
-func (e *hotRockEval) columns() []*heatmodel.Column { return e.dst }
-
-func (e *hotRockEval) saturated() int {
-	n := e.fs.Saturated
-	e.fs.Saturated = 0
-	return n
+	evalBase
 }
 
 func (e *hotRockEval) evaluate(n int, out [][]float64) (int, error) {

@@ -35,6 +35,21 @@ type evaluator interface {
 	saturated() int
 }
 
+// evalBase holds what every evaluator has: its fluid scratch and the
+// pointers to its input columns.
+type evalBase struct {
+	fs  heatmodel.FluidScratch
+	dst []*heatmodel.Column
+}
+
+func (e *evalBase) columns() []*heatmodel.Column { return e.dst }
+
+func (e *evalBase) saturated() int {
+	n := e.fs.Saturated
+	e.fs.Saturated = 0
+	return n
+}
+
 // dsts returns the column pointers of fields.
 func dsts(fields []Field) []*heatmodel.Column {
 	d := make([]*heatmodel.Column, len(fields))

@@ -155,16 +155,7 @@ type reservoirEval struct {
 	hasPressure                  bool
 	r                            heatmodel.Reservoir
 	pressure, depth, utilization heatmodel.Column
-	fs                           heatmodel.FluidScratch
-	dst                          []*heatmodel.Column
-}
-
-func (e *reservoirEval) columns() []*heatmodel.Column { return e.dst }
-
-func (e *reservoirEval) saturated() int {
-	n := e.fs.Saturated
-	e.fs.Saturated = 0
-	return n
+	evalBase
 }
 
 func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {

@@ -6,7 +6,6 @@ import (
 	"html"
 	"html/template"
 	"io"
-	"math"
 	"strings"
 
 	"rockheat"
@@ -51,13 +50,6 @@ type page struct {
 	Warnings                []string
 }
 
-// figureRow is one output of the summary table, formatted.
-type figureRow struct {
-	Name, Doc, Unit     string
-	P90, P50, P10, Mean string
-	P90CI, P50CI, P10CI string
-}
-
 // chartSection holds the charts of one headline output; a chart that
 // cannot be drawn is replaced by a note saying why.
 type chartSection struct {
@@ -76,23 +68,12 @@ type declineSection struct {
 
 type yearRow struct{ Year, P90, P50, P10 string }
 
-// sensSection is the sensitivity table of one headline output.
-type sensSection struct {
-	Doc, Unit string
-	Rows      []sensRow
-}
-
-type sensRow struct {
-	Input, Rho, Share, Low, High string
-	Bar                          int // share of variance, percent, for the bar width
-}
-
 func newPage(r *rockheat.Result) (*page, error) {
 	pg := &page{
 		Title:      r.Title,
 		Path:       r.Path,
 		Model:      modelLine(r),
-		Run:        fmt.Sprintf("%d trials (%s), seed %d", r.Trials, samplingName(r.Sampling), r.Seed),
+		Run:        runLine(r),
 		Level:      fmt.Sprintf("%.0f%%", 100*r.Confidence),
 		Convention: Convention,
 		Caution:    Caution,
@@ -101,23 +82,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 		Warnings:   r.Warnings,
 	}
 
-	// One energy unit for every heat row, as in the text report.
-	eUnit, eScale := heatUnit(r)
-	for _, o := range r.Outputs {
-		if o.Spec.Group == rockheat.DeclineGroup {
-			continue
-		}
-		unit, scale := o.Spec.Unit, 1.0
-		if unit == "J" {
-			unit, scale = eUnit, eScale
-		}
-		s := o.Summary
-		pg.Rows = append(pg.Rows, figureRow{Name: o.Spec.Name, Doc: o.Spec.Doc, Unit: unit,
-			P90: fig(s.P90 / scale), P50: fig(s.P50 / scale), P10: fig(s.P10 / scale), Mean: fig(s.Mean / scale),
-			P90CI: ci(s.P90CI.Lo/scale, s.P90CI.Hi/scale), P50CI: ci(s.P50CI.Lo/scale, s.P50CI.Hi/scale),
-			P10CI: ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale)})
-	}
-
+	pg.Rows = figureRows(r, rockheat.DeclineGroup)
 	pg.Notes = append(pg.Notes, runNotes(r)...)
 
 	for _, o := range r.Outputs {
@@ -148,45 +113,10 @@ func newPage(r *rockheat.Result) (*page, error) {
 		pg.Decline = d
 	}
 
-	for _, s := range r.Sensitivity {
-		if !headline[s.Output] || len(s.Influences) == 0 {
-			continue
-		}
-		o, err := findOutput(r, s.Output)
-		if err != nil {
-			continue
-		}
-		_, unit, scale := chartUnit(o)
-		sec := sensSection{Doc: o.Spec.Doc, Unit: unit}
-		for _, f := range s.Influences {
-			rho := f.RankCorrelation
-			if math.Abs(rho) < 0.005 {
-				rho = 0 // no "-0.00"
-			}
-			sec.Rows = append(sec.Rows, sensRow{Input: f.Input, Rho: fmt.Sprintf("%+.2f", rho),
-				Share: fmt.Sprintf("%.0f%%", 100*f.VarianceShare), Bar: int(math.Round(100 * f.VarianceShare)),
-				Low: swingFig(f.SwingLow / scale), High: swingFig(f.SwingHigh / scale)})
-		}
-		pg.Sensitivity = append(pg.Sensitivity, sec)
-	}
-	if len(r.Correlations) > 0 && len(r.Sensitivity) > 0 {
-		pg.SensNotes = append(pg.SensNotes, "Some inputs are correlated: their variance shares overlap and only rank their influence.")
-	}
-	if len(r.Sensitivity) > 0 && r.SensitivityN < r.Trials {
-		pg.SensNotes = append(pg.SensNotes, fmt.Sprintf("Sensitivities come from the first %d trials.", r.SensitivityN))
-	}
-	for _, c := range r.Correlations {
-		pg.Correlations = append(pg.Correlations, fmt.Sprintf("rank correlation %+.2f between %s and %s (Iman–Conover)", c.Rank, c.Inputs[0], c.Inputs[1]))
-	}
+	pg.Sensitivity = sensSections(r)
+	pg.SensNotes = sensNotes(r)
+	pg.Correlations = correlationLines(r)
 	return pg, nil
-}
-
-// swingFig formats a swing figure, or a dash where the model gave none.
-func swingFig(x float64) string {
-	if !finite(x) {
-		return "–"
-	}
-	return fig(x)
 }
 
 // inlineSVG renders a chart with draw and returns it for inlining in
@@ -279,7 +209,7 @@ code { font-size: .9em; }
 <h3>What drives the {{.Doc}}</h3>
 <table>
 <tr><th>input</th><th class="n">rank correlation</th><th>share of variance</th><th class="n">input low → high, {{.Unit}}</th></tr>
-{{range .Rows}}<tr><td><code>{{.Input}}</code></td><td class="n">{{.Rho}}</td><td><span class="barbox"><span class="bar" style="width: {{.Bar}}%"></span></span> {{.Share}}</td><td class="n">{{.Low}} → {{.High}}</td></tr>
+{{range .Rows}}<tr><td><code>{{.Input}}</code></td><td class="n">{{.Rho}}</td><td><span class="barbox"><span class="bar" style="width: {{.Bar}}%"></span></span> {{.Percent}}</td><td class="n">{{.Low}} → {{.High}}</td></tr>
 {{end}}</table>
 {{end}}
 <p class="note">Spearman rank correlation of each input with the output; share of variance is its square over the sum of squares. Input low → high: the output with that input at its own 10th and 90th percentile and every other input at its median.</p>

@@ -96,25 +96,6 @@ func findOutput(r *rockheat.Result, name string) (rockheat.Output, error) {
 	return rockheat.Output{}, fmt.Errorf("no output named %q in this %s result; the outputs are %s", name, r.Kind, strings.Join(names, ", "))
 }
 
-// chartUnit picks the unit an output is drawn in: a readable multiple of
-// the joule for energies (as the text report does), else its own unit.
-// long is for axis labels, short for figures.
-func chartUnit(o rockheat.Output) (long, short string, scale float64) {
-	if o.Spec.Unit != "J" {
-		return o.Spec.Unit, o.Spec.Unit, 1
-	}
-	mag := math.Abs(o.Summary.P50)
-	if mag == 0 || math.IsNaN(mag) {
-		for _, v := range o.Curve {
-			if !math.IsNaN(v) {
-				mag = math.Max(mag, math.Abs(v))
-			}
-		}
-	}
-	long, scale = energyUnit(mag)
-	return long, strings.Fields(long)[0], scale
-}
-
 // niceTicks marks about n labelled ticks at round values (1, 2, 2.5 or
 // 5 times a power of ten), with an unlabelled tick between each.
 type niceTicks struct{ n int }
@@ -183,7 +164,7 @@ func exceedanceChart(r *rockheat.Result, output string) (chart, error) {
 	if len(o.Curve) != rockheat.CurvePoints {
 		return chart{}, fmt.Errorf("output %q has %d curve points, not %d: the result is incomplete; run the scenario again", output, len(o.Curve), rockheat.CurvePoints)
 	}
-	long, short, scale := chartUnit(o)
+	long, short, scale := outputUnit(r, o)
 	s := o.Summary
 	pts, err := curvePoints(o.Curve, scale)
 	if err != nil {
@@ -454,7 +435,7 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 			sens = &r.Sensitivity[i]
 		}
 	}
-	long, short, scale := chartUnit(o)
+	long, short, scale := outputUnit(r, o)
 	ref, refName := o.Summary.P50/scale, "P50"
 	if sens != nil && finite(sens.Base) {
 		ref, refName = sens.Base/scale, "all inputs at median"

@@ -150,14 +150,21 @@ func findText(texts []svgText, s string) (svgText, bool) {
 	return svgText{}, false
 }
 
-// figUnit is the unit and scale an output's figures are shown in: for
-// energies the EJ/PJ/TJ that energyUnit picks for the P50, as the text
-// report's sensitivity lines do.
-func figUnit(o rockheat.Output) (string, float64) {
+// figUnit is the unit and scale the figures of output o of r are shown in,
+// in tables and charts alike: for energies one EJ/PJ/TJ for the whole
+// report, the one energyUnit picks for the largest heat median (the text
+// table's unit), so that 0.3568 EJ in a table is not 356.8 PJ on a chart.
+func figUnit(r *rockheat.Result, o rockheat.Output) (string, float64) {
 	if o.Spec.Unit != "J" {
 		return o.Spec.Unit, 1
 	}
-	name, scale := energyUnit(o.Summary.P50)
+	var big float64
+	for _, x := range r.Outputs {
+		if x.Spec.Unit == "J" {
+			big = math.Max(big, math.Abs(x.Summary.P50))
+		}
+	}
+	name, scale := energyUnit(big)
 	return strings.Fields(name)[0], scale
 }
 
@@ -176,7 +183,7 @@ func TestExceedanceSVG(t *testing.T) {
 					t.Fatal(err)
 				}
 				texts := parseSVG(t, b.String())
-				unit, scale := figUnit(o)
+				unit, scale := figUnit(r, o)
 				s := o.Summary
 				// The exceedance convention (common practice; Convention):
 				// P90 is exceeded with probability 0.9, so it sits highest
@@ -213,7 +220,7 @@ func TestCurvePoints(t *testing.T) {
 	t.Parallel()
 	r := demoResult(t)
 	for _, o := range r.Outputs {
-		_, scale := figUnit(o)
+		_, scale := figUnit(r, o)
 		pts, err := curvePoints(o.Curve, scale)
 		if err != nil {
 			t.Fatal(err)
@@ -442,7 +449,7 @@ func TestTornadoSVG(t *testing.T) {
 			if len(tc.absent) > 0 && !strings.Contains(b.String(), "with no effect on this output") {
 				t.Errorf("caption does not say that inputs with no effect are left out")
 			}
-			unit, scale := figUnit(o)
+			unit, scale := figUnit(r, o)
 			base := sensitivityOf(r, tc.output).Base
 			want := "all inputs at median  " + fig(base/scale) + " " + unit
 			if _, ok := findText(texts, want); !ok {

@@ -11,31 +11,6 @@ import (
 	"rockheat/sampler"
 )
 
-// energyUnit picks a readable unit for heat figures of magnitude x, J.
-func energyUnit(x float64) (name string, scale float64) {
-	switch ax := math.Abs(x); {
-	case ax >= 1e18:
-		return "EJ (10^18 J)", 1e18
-	case ax >= 1e15:
-		return "PJ (10^15 J)", 1e15
-	case ax >= 1e12:
-		return "TJ (10^12 J)", 1e12
-	}
-	return "J", 1
-}
-
-// heatUnit returns the one energy unit of a report's heat rows, chosen
-// from the largest heat median so that rows compare at a glance.
-func heatUnit(r *rockheat.Result) (name string, scale float64) {
-	var big float64
-	for _, o := range r.Outputs {
-		if o.Spec.Unit == "J" {
-			big = math.Max(big, math.Abs(o.Summary.P50))
-		}
-	}
-	return energyUnit(big)
-}
-
 // Text writes r as a summary table for people: the headline figures in
 // readable units, the percentile convention and method, the inputs, any
 // warnings and the caution.
@@ -48,16 +23,9 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed)
 
 	level := r.Confidence
-	eUnit, eScale := heatUnit(r)
 	rows := [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
-	for _, o := range r.Outputs {
-		s := o.Summary
-		unit, scale := o.Spec.Unit, 1.0
-		if unit == "J" {
-			unit, scale = eUnit, eScale
-		}
-		rows = append(rows, []string{o.Spec.Doc, fig(s.P90 / scale), fig(s.P50 / scale), fig(s.P10 / scale), fig(s.Mean / scale), unit})
-		rows = append(rows, []string{"", ci(s.P90CI.Lo/scale, s.P90CI.Hi/scale), ci(s.P50CI.Lo/scale, s.P50CI.Hi/scale), ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale), "", ""})
+	for _, f := range figureRows(r, "") {
+		rows = append(rows, []string{f.Doc, f.P90, f.P50, f.P10, f.Mean, f.Unit}, []string{"", f.P90CI, f.P50CI, f.P10CI, "", ""})
 	}
 	table(&b, rows, "lrrrrl")
 	fmt.Fprintf(&b, "\nRanges in brackets are %.0f%% distribution-free confidence intervals of each percentile\n(order statistics, binomial; Hahn & Meeker 1991): how far the figure could move with more trials.\n", 100*level)
@@ -73,8 +41,8 @@ func Text(w io.Writer, r *rockheat.Result) error {
 		in = append(in, []string{"  " + x.Key, x.Unit, x.Dist})
 	}
 	table(&b, in, "lll")
-	for _, c := range r.Correlations {
-		fmt.Fprintf(&b, "  rank correlation %+.2f between %s and %s (Iman–Conover)\n", c.Rank, c.Inputs[0], c.Inputs[1])
+	for _, line := range correlationLines(r) {
+		b.WriteString("  " + line + "\n")
 	}
 
 	b.WriteString("\nMethod\n")
@@ -121,48 +89,25 @@ func zeroHeatNote(r *rockheat.Result) string {
 	return fmt.Sprintf("No trial had %s.", what)
 }
 
-// headline lists the outputs whose drivers the text report shows.
-var headline = map[string]bool{"heat_in_place": true, "electric_power": true}
-
 // sensitivityText writes, for the headline outputs, the inputs that drive
 // them most, with a bar for each one's share of the variance.
 func sensitivityText(b *strings.Builder, r *rockheat.Result) {
 	const top, barWidth = 6, 20
-	for j, s := range r.Sensitivity {
-		if !headline[s.Output] || len(s.Influences) == 0 {
-			continue
-		}
-		o := r.Outputs[j]
-		unit, scale := o.Spec.Unit, 1.0
-		if unit == "J" {
-			unit, scale = energyUnit(o.Summary.P50)
-			unit = strings.Fields(unit)[0]
-		}
-		fmt.Fprintf(b, "\nWhat drives %s (Spearman rank correlation, share of variance, and %s with the input at its P90 → P10):\n", o.Spec.Doc, unit)
+	for _, sec := range sensSections(r) {
+		fmt.Fprintf(b, "\nWhat drives %s (Spearman rank correlation, share of variance, and %s with the input at its P90 → P10):\n", sec.Doc, sec.Unit)
 		var rows [][]string
-		for i, f := range s.Influences {
-			if i == top {
-				break
-			}
-			n := int(math.Round(f.VarianceShare * barWidth))
+		for _, f := range sec.Rows[:min(top, len(sec.Rows))] {
+			n := int(math.Round(f.Share * barWidth))
 			bar := strings.Repeat("█", n) + strings.Repeat("·", barWidth-n)
-			rho := f.RankCorrelation
-			if math.Abs(rho) < 0.005 {
-				rho = 0 // no "-0.00"
-			}
-			rows = append(rows, []string{"  " + f.Input, fmt.Sprintf("%+.2f", rho), bar, fmt.Sprintf("%3.0f%%", 100*f.VarianceShare),
-				fig(f.SwingLow/scale) + " → " + fig(f.SwingHigh/scale)})
+			rows = append(rows, []string{"  " + f.Input, f.Rho, bar, fmt.Sprintf("%3.0f%%", 100*f.Share), f.Low + " → " + f.High})
 		}
 		table(b, rows, "lrlrl")
-		if more := len(s.Influences) - top; more > 0 {
+		if more := len(sec.Rows) - top; more > 0 {
 			fmt.Fprintf(b, "  (%d more with smaller shares)\n", more)
 		}
 	}
-	if len(r.Correlations) > 0 && len(r.Sensitivity) > 0 {
-		b.WriteString("Some inputs are correlated: their variance shares overlap and only rank their influence.\n")
-	}
-	if len(r.Sensitivity) > 0 && r.SensitivityN < r.Trials {
-		fmt.Fprintf(b, "Sensitivities come from the first %d trials.\n", r.SensitivityN)
+	for _, note := range sensNotes(r) {
+		b.WriteString(note + "\n")
 	}
 }
 
