@@ -33,7 +33,7 @@ func p50(t *testing.T, r *rockheat.Result, name string) float64 {
 }
 
 // TestExergyRouteUSGSChain runs the USGS Circular 790 chain with fixed
-// inputs and checks it against the derived check values of REFERENCES §8
+// inputs and checks it against the derived check values of docs/references.md §8
 // (derived from the Circular 790 formulas with IAPWS-IF97 properties):
 // A = 10 km², Δz = 1 km, ρC = 2.7 MJ/(m³·K), TR = 250 °C, T0 = 15 °C,
 // Rg = 0.25, ηu = 0.4, L = 30 years of 365.25 d, F = 1 →
@@ -65,13 +65,13 @@ life_years = 30
 		t.Errorf("Q = %.7g J, want 6.345e18", q)
 	}
 	if pe := p50(t, res, "electric_power"); math.Abs(pe/185.06-1) > 5e-5 {
-		t.Errorf("Pe = %.6g MWe, want 185.06 (USGS chain, REFERENCES §8)", pe)
+		t.Errorf("Pe = %.6g MWe, want 185.06 (USGS chain, docs/references.md §8)", pe)
 	}
 }
 
 // TestIF97FluidSaturatedRule: at 250 °C and 3.9 MPa, below the saturation
 // pressure (3.9762 MPa, IAPWS-IF97), the stated rule takes saturated
-// liquid: ρ = 798.89 kg/m³, cp = 4.865 kJ/(kg·K) (REFERENCES §2, derived
+// liquid: ρ = 798.89 kg/m³, cp = 4.865 kJ/(kg·K) (docs/references.md §2, derived
 // from IF97). Heat in place by hand with φ = 0.1, rock 2650·900,
 // A = 1 km², h = 100 m, ΔT = 235 K:
 // Q = 1e6·100·(0.9·2650·900 + 0.1·798.89·4865)·235. A warning counts
@@ -122,7 +122,7 @@ life_years = 30
 }
 
 // TestHotRockDerivedCheck runs the hot-rock kind with fixed inputs on the
-// derived check of REFERENCES §5/§8 (derived from the heat-mining
+// derived check of docs/references.md §5/§8 (derived from the heat-mining
 // formulas): Ts = 15 °C, G = 30 K/km, Tmin = 120 °C, z2 = 6 km,
 // ρr·cr = 2600·900, ρw·cw = 1000·4180, V̇/A = 0.5 m³/s per km², A = 1 km² →
 // z1 = 3.5 km, E0 = 2.19375e11 J/m² · 1e6 m² = 2.19375e17 J,

@@ -10,7 +10,7 @@ import (
 // TestAvailableWorkSaturatedLiquid checks the specific available work of
 // saturated liquid against the dead state at 15 °C and 0.101325 MPa,
 // h0 = 63.0790 kJ/kg, s0 = 0.224456 kJ/(kg·K), with IAPWS-IF97 properties
-// (package water), against the values of REFERENCES §8 (derived from the
+// (package water), against the values of docs/references.md §8 (derived from the
 // USGS Circular 790 formula with IF97): 150 °C 103.091 kJ/kg, 200 °C
 // 182.371, 250 °C 282.370, 300 °C 408.516.
 func TestAvailableWorkSaturatedLiquid(t *testing.T) {

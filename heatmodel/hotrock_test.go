@@ -17,7 +17,7 @@ const (
 	zeroCelsius    = 273.15         // K
 )
 
-// derivedHotRock is the hot-rock case of REFERENCES §8 over 1 km²:
+// derivedHotRock is the hot-rock case of docs/references.md §8 over 1 km²:
 // Ts = 15 °C, G = 30 K/km, Tmin = 120 °C, z2 = 6 km, ρr·cr = 2600·900,
 // ρw·cw = 1000·4180, V̇/A = 0.5 m³/s per km² = 5e-7 m/s, L = 30 yr,
 // η = 0.12, F = 0.9, reporting P at 0 and 30 yr.
@@ -58,7 +58,7 @@ func mustProfile(t testing.TB, layers []Layer) Profile {
 }
 
 // TestHotRockDerivedCheck checks Evaluate against the hot-rock values of
-// REFERENCES §8, derived from the exponential heat-mining formulas
+// docs/references.md §8, derived from the exponential heat-mining formulas
 // (Armstead & Tester 1987, "Heat Mining"; renewable-energy textbooks), per
 // m² and times the 1e6 m² of derivedHotRock. By hand:
 //
@@ -341,7 +341,7 @@ func TestTimeConstantDimensions(t *testing.T) {
 }
 
 // TestHotRockTopAndZero checks the top depth and the zero-heat trials on
-// the REFERENCES §8 case (uniform-gradient formulas of the heat-mining
+// the docs/references.md §8 case (uniform-gradient formulas of the heat-mining
 // model, per m² times 1e6 m²). By hand, ρr·cr = 2.34e6, G = 0.03 K/m:
 //
 //	top 4000 m (below z1 = 3500 m): excess at 4 km = 0.03·500 = 15 K;
@@ -463,7 +463,7 @@ func TestUniformProfilePanics(t *testing.T) {
 	}
 }
 
-// ExampleHotRock_Evaluate evaluates the hot-rock case of REFERENCES §8 over
+// ExampleHotRock_Evaluate evaluates the hot-rock case of docs/references.md §8 over
 // 1 km² (derived from the exponential heat-mining formulas).
 func ExampleHotRock_Evaluate() {
 	const year = 365.25 * 86400 // s

@@ -23,7 +23,7 @@ const julianYear = 365.25 * 86400 // s
 //	Pth = Qr / L                       = 1.5914220e9 W
 //	Pe  = 0.12·Qr / (0.9·L)            = 2.1218960e8 W
 //
-// Case "USGS chain": the derived check of REFERENCES §8 (formula of USGS
+// Case "USGS chain": the derived check of docs/references.md §8 (formula of USGS
 // Circular 790): ρC = 2.7 MJ/(m³·K) as a dry rock of 2700 kg/m³ and
 // 1000 J/(kg·K), A = 10 km², Δz = 1 km, 250 → 15 °C: Q = 6.345e18 J,
 // Qr = R·Q = 1.58625e18 J with R = 0.25.

@@ -8,7 +8,7 @@ import (
 
 // Saturated liquid at 250 °C, the pore fluid of a hot liquid-dominated
 // reservoir. Density and c_p agree with 798.89 kg/m³ and 4.865 kJ/(kg·K)
-// (REFERENCES.md §2, derived from IF97); python3-iapws gives the same four
+// (docs/references.md §2, derived from IF97); python3-iapws gives the same four
 // figures.
 func ExampleSaturatedLiquid() {
 	liq, err := water.SaturatedLiquid(250 + 273.15)

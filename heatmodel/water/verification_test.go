@@ -20,7 +20,7 @@ func checkPublished(t *testing.T, name string, got, want float64) {
 
 // Source: IAPWS R7-97(2012), Table 5, "Thermodynamic property values
 // calculated from Eq. (7) for selected temperatures and pressures", as
-// listed in REFERENCES.md §7. Units there are m³/kg, kJ/kg, kJ/(kg·K), m/s.
+// listed in docs/references.md §7. Units there are m³/kg, kJ/kg, kJ/(kg·K), m/s.
 var table5 = []struct {
 	T, pMPa           float64
 	v, h, u, s, cp, w float64
@@ -53,7 +53,7 @@ func TestRegion1Table5(t *testing.T) {
 
 // Source: IAPWS R7-97(2012), Table 15, "Thermodynamic property values
 // calculated from Eq. (15) for selected temperatures and pressures", as
-// listed in REFERENCES.md §7.
+// listed in docs/references.md §7.
 var table15 = []struct {
 	T, pMPa           float64
 	v, h, u, s, cp, w float64
@@ -105,7 +105,7 @@ func checkState(t *testing.T, fn string, st State, v, h, u, s, cp, w float64) {
 func fmtK(T float64) string { return strconv.FormatFloat(T, 'g', -1, 64) + " K" }
 
 // Source: IAPWS R7-97(2012), Table 35, "Saturation pressures calculated
-// from Eq. (30)", as listed in REFERENCES.md §7 (MPa).
+// from Eq. (30)", as listed in docs/references.md §7 (MPa).
 func TestSaturationPressureTable35(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct{ T, psMPa float64 }{
@@ -123,7 +123,7 @@ func TestSaturationPressureTable35(t *testing.T) {
 }
 
 // Source: IAPWS R7-97(2012), Table 36, "Saturation temperatures calculated
-// from Eq. (31)", as listed in REFERENCES.md §7 (K).
+// from Eq. (31)", as listed in docs/references.md §7 (K).
 func TestSaturationTemperatureTable36(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct{ pMPa, Ts float64 }{

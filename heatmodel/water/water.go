@@ -7,7 +7,7 @@ import (
 
 // Equation and table numbers cited in this package are those of the
 // release (from memory, apart from the verification Tables 5, 15, 35 and
-// 36 and the B23 check value, listed in REFERENCES.md §7). Every
+// 36 and the B23 check value, listed in docs/references.md §7). Every
 // coefficient table was checked against those verification values.
 
 // Reference constants and region boundaries of IAPWS R7-97(2012), in SI
