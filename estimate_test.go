@@ -287,7 +287,7 @@ func TestPrecisionStops(t *testing.T) {
 }
 
 // TestSwings checks the one-at-a-time swings of heat in place against the
-// Muffler & Cataldi formula (heatmodel.VolumetricHeat) evaluated at the
+// Muffler & Cataldi formula (heatmodel.Block.HeatInPlace) evaluated at the
 // inputs' own quantiles: base with every input at its median, and the
 // area's swing at its 10th (P90) and 90th (P10) percentiles.
 func TestSwings(t *testing.T) {
@@ -306,9 +306,10 @@ func TestSwings(t *testing.T) {
 		return in.Dist.Quantile(p)
 	}
 	heat := func(areaP float64) float64 {
-		return heatmodel.VolumetricHeat(q("area_km2", areaP)*1e6, q("thickness_m", 0.5), q("porosity", 0.5),
-			q("rock_density_kg_m3", 0.5), q("rock_heat_capacity_j_kgk", 0.5), q("fluid_density_kg_m3", 0.5),
-			q("fluid_heat_capacity_j_kgk", 0.5), q("reservoir_temp_c", 0.5), q("reference_temp_c", 0.5))
+		return heatmodel.Block{Area: q("area_km2", areaP) * 1e6, Thickness: q("thickness_m", 0.5), Porosity: q("porosity", 0.5),
+			RockDensity: q("rock_density_kg_m3", 0.5), RockHeatCapacity: q("rock_heat_capacity_j_kgk", 0.5),
+			FluidDensity: q("fluid_density_kg_m3", 0.5), FluidHeatCapacity: q("fluid_heat_capacity_j_kgk", 0.5),
+			ReservoirTemp: q("reservoir_temp_c", 0.5), ReferenceTemp: q("reference_temp_c", 0.5)}.HeatInPlace()
 	}
 	sens := res.Sensitivity[0]
 	if sens.Output != "heat_in_place" {

@@ -42,8 +42,10 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 			zeroHeat++
 			continue
 		}
-		q := VolumetricHeat(r.Area.At(i), r.Thickness.At(i), r.Porosity.At(i), r.RockDensity.At(i), r.RockHeatCapacity.At(i),
-			r.FluidDensity.At(i), r.FluidHeatCapacity.At(i), r.ReservoirTemp.At(i), r.ReferenceTemp.At(i))
+		q := Block{Area: r.Area.At(i), Thickness: r.Thickness.At(i), Porosity: r.Porosity.At(i),
+			RockDensity: r.RockDensity.At(i), RockHeatCapacity: r.RockHeatCapacity.At(i),
+			FluidDensity: r.FluidDensity.At(i), FluidHeatCapacity: r.FluidHeatCapacity.At(i),
+			ReservoirTemp: r.ReservoirTemp.At(i), ReferenceTemp: r.ReferenceTemp.At(i)}.HeatInPlace()
 		qr := r.RecoveryFactor.At(i) * q
 		life := r.Life.At(i)
 		out.HeatInPlace[i] = q
@@ -54,14 +56,26 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 	return zeroHeat
 }
 
-// VolumetricHeat returns the heat in place of one block, J:
+// Block is one trial of a reservoir block, in SI units.
+type Block struct {
+	Area              float64 // m²
+	Thickness         float64 // m
+	Porosity          float64 // fraction
+	RockDensity       float64 // kg/m³
+	RockHeatCapacity  float64 // J/(kg·K)
+	FluidDensity      float64 // kg/m³
+	FluidHeatCapacity float64 // J/(kg·K)
+	ReservoirTemp     float64 // K (or °C, as ReferenceTemp)
+	ReferenceTemp     float64 // K (or °C, as ReservoirTemp)
+}
+
+// HeatInPlace returns the heat in place of b, J, by the volumetric method
+// (Muffler & Cataldi 1978; docs/references.md §1):
 // A·h·[(1 − φ)·ρr·cr + φ·ρf·cf]·(Tr − Tref), or 0 if Tr ≤ Tref.
-// Units: area m², thickness m, temperatures K (or both °C), densities
-// kg/m³, heat capacities J/(kg·K).
-func VolumetricHeat(area, thickness, porosity, rockDensity, rockHeatCapacity, fluidDensity, fluidHeatCapacity, reservoirTemp, referenceTemp float64) float64 {
-	dT := reservoirTemp - referenceTemp
+func (b Block) HeatInPlace() float64 {
+	dT := b.ReservoirTemp - b.ReferenceTemp
 	if dT <= 0 {
 		return 0
 	}
-	return area * thickness * ((1-porosity)*rockDensity*rockHeatCapacity + porosity*fluidDensity*fluidHeatCapacity) * dT
+	return b.Area * b.Thickness * ((1-b.Porosity)*b.RockDensity*b.RockHeatCapacity + b.Porosity*b.FluidDensity*b.FluidHeatCapacity) * dT
 }

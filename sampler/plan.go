@@ -34,7 +34,6 @@ func (m Method) String() string {
 // constant of the random streams: changing it changes every result.
 const BatchSize = 1 << 16
 
-
 // Config sets up a Plan.
 type Config struct {
 	Trials int    // number of trials, ≥ 1
