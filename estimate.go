@@ -164,12 +164,12 @@ func (r *run) warnings(res *Result) []string {
 		ws = append(ws, fmt.Sprintf("in %d of %d trials the fluid pressure was below the saturation pressure at the sampled temperature, so the water would boil; those trials use saturated-liquid properties at their temperature (a boiling-point reservoir). Check the pressure (or depth) and temperature ranges together", n, res.Trials))
 	}
 	// The summaries' own warnings (too few trials for an interval, NaN
-	// values), each said once; an output that does not vary has exact
+	// values), each said once; a run with no sampled input has exact
 	// percentiles whatever the trial count.
 	seen := map[string]bool{}
 	for _, o := range res.Outputs {
-		if o.Summary.Min == o.Summary.Max {
-			continue
+		if len(r.sampled) == 0 {
+			break
 		}
 		for _, w := range o.Summary.Warnings {
 			if msg := w.Error(); !seen[msg] {

@@ -6,21 +6,33 @@ import (
 	"strconv"
 
 	"rockheat"
+	"rockheat/stats"
 )
 
 func num(x float64) string { return strconv.FormatFloat(x, 'g', 10, 64) }
 
 // CSV writes the summary figures of r as a flat table, one row per output:
-// output, unit, p90, p50, p10, mean, sd, min, max and the confidence
-// interval bounds of each percentile.
+// output, unit, p90, p50, p10, mean, sd, min, max, the confidence level
+// asked (ci_level), the interval bounds of each percentile (empty where the
+// run is too short to give one at that level) and the coverage each
+// interval achieves.
 func CSV(w io.Writer, r *rockheat.Result) error {
 	cw := csv.NewWriter(w)
 	cw.Write([]string{"output", "unit", "p90", "p50", "p10", "mean", "sd", "min", "max",
-		"ci_level", "p90_lo", "p90_hi", "p50_lo", "p50_hi", "p10_lo", "p10_hi"})
+		"ci_level", "p90_lo", "p90_hi", "p50_lo", "p50_hi", "p10_lo", "p10_hi",
+		"p90_coverage", "p50_coverage", "p10_coverage"})
 	for _, o := range r.Outputs {
 		s := o.Summary
-		cw.Write([]string{o.Spec.Name, o.Spec.Unit, num(s.P90), num(s.P50), num(s.P10), num(s.Mean), num(finiteOr0(s.SD)), num(s.Min), num(s.Max),
-			num(s.P50CI.Level), num(s.P90CI.Lo), num(s.P90CI.Hi), num(s.P50CI.Lo), num(s.P50CI.Hi), num(s.P10CI.Lo), num(s.P10CI.Hi)})
+		row := []string{o.Spec.Name, o.Spec.Unit, num(s.P90), num(s.P50), num(s.P10), num(s.Mean), num(finiteOr0(s.SD)), num(s.Min), num(s.Max),
+			num(r.Confidence)}
+		for _, iv := range []stats.Interval{s.P90CI, s.P50CI, s.P10CI} {
+			if iv.OK() {
+				row = append(row, num(iv.Lo), num(iv.Hi))
+			} else {
+				row = append(row, "", "")
+			}
+		}
+		cw.Write(append(row, num(s.P90CI.Coverage), num(s.P50CI.Coverage), num(s.P10CI.Coverage)))
 	}
 	cw.Flush()
 	return cw.Error()

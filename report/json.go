@@ -23,11 +23,21 @@ type jsonFigures struct {
 	CI   jsonCI  `json:"ci"`
 }
 
+// jsonCI holds the confidence intervals of the percentiles at the level
+// asked; an interval the run is too short to give is null. Coverage is
+// what each interval's order statistics achieve.
 type jsonCI struct {
-	Level float64    `json:"level"`
-	P90   [2]float64 `json:"p90"`
-	P50   [2]float64 `json:"p50"`
-	P10   [2]float64 `json:"p10"`
+	Level    float64      `json:"level"`
+	P90      *[2]float64  `json:"p90"`
+	P50      *[2]float64  `json:"p50"`
+	P10      *[2]float64  `json:"p10"`
+	Coverage jsonCoverage `json:"coverage"`
+}
+
+type jsonCoverage struct {
+	P90 float64 `json:"p90"`
+	P50 float64 `json:"p50"`
+	P10 float64 `json:"p10"`
 }
 
 // object is a JSON object whose keys keep their order.
@@ -87,9 +97,15 @@ func outputsObject(outs []rockheat.Output, level float64) object {
 
 func figures(o rockheat.Output, level float64) jsonFigures {
 	s := o.Summary
-	iv := func(i stats.Interval) [2]float64 { return [2]float64{i.Lo, i.Hi} }
+	iv := func(i stats.Interval) *[2]float64 {
+		if !i.OK() {
+			return nil
+		}
+		return &[2]float64{i.Lo, i.Hi}
+	}
 	return jsonFigures{Unit: o.Spec.Unit, P90: s.P90, P50: s.P50, P10: s.P10, Mean: s.Mean, SD: finiteOr0(s.SD), Min: s.Min, Max: s.Max,
-		CI: jsonCI{Level: level, P90: iv(s.P90CI), P50: iv(s.P50CI), P10: iv(s.P10CI)}}
+		CI: jsonCI{Level: level, P90: iv(s.P90CI), P50: iv(s.P50CI), P10: iv(s.P10CI),
+			Coverage: jsonCoverage{s.P90CI.Coverage, s.P50CI.Coverage, s.P10CI.Coverage}}}
 }
 
 func finiteOr0(x float64) float64 {

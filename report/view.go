@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"rockheat"
+	"rockheat/stats"
 )
 
 // The formatted figures of a Result that the text report and the HTML page
@@ -76,10 +77,18 @@ func figureRows(r *rockheat.Result, skip string) []figureRow {
 		s := o.Summary
 		rows = append(rows, figureRow{Name: o.Spec.Name, Doc: o.Spec.Doc, Unit: unit,
 			P90: fig(s.P90 / scale), P50: fig(s.P50 / scale), P10: fig(s.P10 / scale), Mean: fig(s.Mean / scale),
-			P90CI: ci(s.P90CI.Lo/scale, s.P90CI.Hi/scale), P50CI: ci(s.P50CI.Lo/scale, s.P50CI.Hi/scale),
-			P10CI: ci(s.P10CI.Lo/scale, s.P10CI.Hi/scale)})
+			P90CI: ciText(s.P90CI, scale), P50CI: ciText(s.P50CI, scale), P10CI: ciText(s.P10CI, scale)})
 	}
 	return rows
+}
+
+// ciText formats a confidence interval in a unit of the given scale, or
+// says "n/a" where the run is too short to give one at its level.
+func ciText(iv stats.Interval, scale float64) string {
+	if !iv.OK() {
+		return "n/a"
+	}
+	return ci(iv.Lo/scale, iv.Hi/scale)
 }
 
 // headline lists the outputs whose drivers the reports show.

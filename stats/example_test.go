@@ -25,7 +25,7 @@ func ExampleSummarize() {
 	heat := heatTrials(10000) // J
 	s := stats.Summarize(heat, stats.DefaultOptions)
 	fmt.Printf("N = %d, mean = %.4g J, SD = %.3g J\n", s.N, s.Mean, s.SD)
-	fmt.Printf("P90 = %.4g J, 95 %% CI [%.4g, %.4g] (coverage %.3f)\n", s.P90, s.P90CI.Lo, s.P90CI.Hi, s.P90CI.Level)
+	fmt.Printf("P90 = %.4g J, 95 %% CI [%.4g, %.4g] (coverage %.3f)\n", s.P90, s.P90CI.Lo, s.P90CI.Hi, s.P90CI.Coverage)
 	fmt.Printf("P50 = %.4g J\n", s.P50)
 	fmt.Printf("P10 = %.4g J\n", s.P10)
 	fmt.Printf("P50 precision ±%.2f %%\n", 100*stats.RelativeHalfWidth(s.P50CI, s.P50))

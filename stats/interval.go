@@ -6,15 +6,20 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
-// Interval is a confidence interval [Lo, Hi] in the unit of the sample,
-// with Level its coverage probability in [0, 1]. For percentile intervals
-// Level is the coverage actually achieved by the chosen order statistics,
-// which is at least the requested level whenever the sample is large
-// enough (see QuantileBounds).
+// Interval is a confidence interval [Lo, Hi] in the unit of the sample.
+// Level is the coverage probability asked for, in (0, 1), and Coverage the
+// coverage the interval achieves: for percentile intervals that of the
+// chosen order statistics, at least Level whenever the sample is large
+// enough (see QuantileBounds); for the mean's interval its nominal level.
 type Interval struct {
-	Lo, Hi float64
-	Level  float64
+	Lo, Hi          float64
+	Level, Coverage float64
 }
+
+// OK reports whether iv is an interval at its level. A sample too small
+// to give one has Coverage below Level, and [Lo, Hi] (its widest pair of
+// order statistics) must not be shown as a confidence interval.
+func (iv Interval) OK() bool { return iv.Coverage >= iv.Level && iv.Level > 0 }
 
 // RelativeHalfWidth returns max(Hi−value, value−Lo)/|value|, the larger
 // distance from value to an end of iv relative to value: the precision of a
@@ -35,7 +40,7 @@ func RelativeHalfWidth(iv Interval, value float64) float64 {
 // ascending without NaNs; 0 < q < 1 and 0 < level < 1.
 func QuantileInterval(sorted []float64, q, level float64) Interval {
 	lo, hi, cov := QuantileBounds(len(sorted), q, level)
-	return Interval{Lo: sorted[lo], Hi: sorted[hi], Level: cov}
+	return Interval{Lo: sorted[lo], Hi: sorted[hi], Level: level, Coverage: cov}
 }
 
 // normalApproxSD is the standard deviation √(n·q·(1−q)) of the binomial

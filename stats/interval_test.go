@@ -164,7 +164,7 @@ func TestIntervalCoverage(t *testing.T) {
 			x := lognormal(n, dist.Mu, dist.Sigma, uint64(1000+r))
 			slices.Sort(x)
 			iv := QuantileInterval(x, q, level)
-			achieved = iv.Level
+			achieved = iv.Coverage
 			if iv.Lo <= truth && truth <= iv.Hi {
 				hits++
 			}

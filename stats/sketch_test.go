@@ -167,7 +167,7 @@ func TestSketchSummary(t *testing.T) {
 		{"P50", got.P50CI, want.P50CI, got.P50, want.P50},
 		{"P10", got.P10CI, want.P10CI, got.P10, want.P10},
 	} {
-		if c.got.Level != c.want.Level || !within(c.got.Lo, c.want.Lo, a*c.want.Lo) ||
+		if c.got.Coverage != c.want.Coverage || !within(c.got.Lo, c.want.Lo, a*c.want.Lo) ||
 			!within(c.got.Hi, c.want.Hi, a*c.want.Hi) || !within(c.gv, c.wv, a*c.wv) {
 			t.Errorf("%s: sketch %v %+v, exact %v %+v", c.what, c.gv, c.got, c.wv, c.want)
 		}

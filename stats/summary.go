@@ -3,6 +3,7 @@ package stats
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/stat/distuv"
 
@@ -118,7 +119,7 @@ func build(n, nan int, at func(i int) float64, m *moments, level float64) Summar
 	}
 	if n == 0 {
 		nan := math.NaN()
-		none := Interval{Lo: nan, Hi: nan, Level: 0}
+		none := Interval{Lo: nan, Hi: nan, Level: level}
 		s.Mean, s.SD, s.Min, s.Max = nan, nan, nan, nan
 		s.P90, s.P50, s.P10 = nan, nan, nan
 		s.P90CI, s.P50CI, s.P10CI, s.MeanCI = none, none, none, none
@@ -135,18 +136,24 @@ func build(n, nan int, at func(i int) float64, m *moments, level float64) Summar
 		}
 		return interpolate(at(lo), at(lo+1), f)
 	}
+	var short []string // percentiles without an interval at the level
+	need := 0
 	interval := func(name string, q float64) Interval {
 		lo, hi, cov := QuantileBounds(n, q, level)
 		if cov < level {
-			s.Warnings = append(s.Warnings, fmt.Errorf(
-				"%s interval: %d values give at most %.1f %% coverage, less than the %g %% asked; run at least %d trials",
-				name, n, 100*cov, 100*level, trialsFor(q, level)))
+			short = append(short, name)
+			need = max(need, trialsFor(q, level))
 		}
-		return Interval{Lo: at(lo), Hi: at(hi), Level: cov}
+		return Interval{Lo: at(lo), Hi: at(hi), Level: level, Coverage: cov}
 	}
 	s.P90, s.P90CI = quant(0.1), interval("P90", 0.1)
 	s.P50, s.P50CI = quant(0.5), interval("P50", 0.5)
 	s.P10, s.P10CI = quant(0.9), interval("P10", 0.9)
+	if len(short) > 0 {
+		s.Warnings = append(s.Warnings, fmt.Errorf(
+			"%s cannot give a %g %% confidence interval for %s, so none is shown; run at least %d trials",
+			count(n, "value"), 100*level, strings.Join(short, ", "), need))
+	}
 
 	s.MeanCI = Interval{Lo: math.NaN(), Hi: math.NaN(), Level: level}
 	if n < 2 {
@@ -155,7 +162,7 @@ func build(n, nan int, at func(i int) float64, m *moments, level float64) Summar
 	} else if !math.IsNaN(s.SD) {
 		t := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: float64(n - 1)}.Quantile((1 + level) / 2)
 		h := t * s.SD / math.Sqrt(float64(n))
-		s.MeanCI.Lo, s.MeanCI.Hi = s.Mean-h, s.Mean+h
+		s.MeanCI.Lo, s.MeanCI.Hi, s.MeanCI.Coverage = s.Mean-h, s.Mean+h, level
 	}
 	return s
 }
@@ -169,4 +176,12 @@ func trialsFor(q, level float64) int {
 		n++
 	}
 	return n
+}
+
+// count returns "1 value" or "n values".
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

@@ -64,7 +64,7 @@ func TestSummarize(t *testing.T) {
 			iv Interval
 			v  float64
 		}{{s.P90CI, s.P90}, {s.P50CI, s.P50}, {s.P10CI, s.P10}, {s.MeanCI, s.Mean}} {
-			if !(c.iv.Lo <= c.v && c.v <= c.iv.Hi) || c.iv.Level < DefaultConfidence {
+			if !(c.iv.Lo <= c.v && c.v <= c.iv.Hi) || c.iv.Coverage < DefaultConfidence {
 				t.Errorf("%s: interval %+v does not hold %v at level ≥ 0.95", tc.name, c.iv, c.v)
 			}
 		}
@@ -118,8 +118,8 @@ func TestSummarizeSmall(t *testing.T) {
 	}{
 		{"none", nil, []string{"no values"}},
 		{"nan only", []float64{math.NaN()}, []string{"NaN", "no values"}},
-		{"one", []float64{4}, []string{"at least 29", "at least 6", "at least 29", "at least 2 values"}},
-		{"six", []float64{1, 2, 3, 4, 5, 6}, []string{"P90 interval", "P10 interval"}},
+		{"one", []float64{4}, []string{"for P90, P50, P10, so none is shown; run at least 29 trials", "at least 2 values"}},
+		{"six", []float64{1, 2, 3, 4, 5, 6}, []string{"for P90, P10, so none is shown; run at least 29 trials"}},
 		{"thirty", normal(30, 0, 1, 1), nil},
 	} {
 		s := Summarize(tc.x, DefaultOptions)
@@ -131,6 +131,9 @@ func TestSummarizeSmall(t *testing.T) {
 			if !strings.Contains(s.Warnings[i].Error(), w) {
 				t.Errorf("%s: warning %q does not contain %q", tc.name, s.Warnings[i], w)
 			}
+		}
+		if s.N == 6 && (!s.P50CI.OK() || s.P90CI.OK() || s.P10CI.OK()) {
+			t.Errorf("%s: intervals OK: P90 %v, P50 %v, P10 %v; want only P50's (6 values suffice for the median)", tc.name, s.P90CI.OK(), s.P50CI.OK(), s.P10CI.OK())
 		}
 		if s.N == 1 && (s.P50 != 4 || s.Min != 4 || !math.IsNaN(s.SD)) {
 			t.Errorf("%s: %+v", tc.name, s)

@@ -40,6 +40,8 @@ func TestGolden(t *testing.T) {
 		{"validate-hotrock", "validate ../../testdata/bad-hotrock.toml"},
 		{"examples-list", "examples"},
 		{"examples-unknown", "examples nonesuch"},
+		{"run-one-trial-text", "run ../../testdata/small.toml --trials 1"},
+		{"run-one-trial-csv", "run ../../testdata/small.toml --trials 1 --format csv"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
