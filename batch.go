@@ -1,6 +1,8 @@
 package rockheat
 
 import (
+	"fmt"
+	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -14,7 +16,8 @@ func (r *run) batches(from, to int) error {
 	var (
 		next     atomic.Int64
 		wg       sync.WaitGroup
-		errOnce  sync.Once
+		mu       sync.Mutex
+		errBatch = to
 		firstErr error
 	)
 	next.Store(int64(from))
@@ -22,8 +25,14 @@ func (r *run) batches(from, to int) error {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			if err := r.newWorker(w).work(&next, to); err != nil {
-				errOnce.Do(func() { firstErr = err })
+			if b, err := r.newWorker(w).work(&next, to); err != nil {
+				// The error of the lowest batch, whatever the workers: batches
+				// are taken in order, so every batch below it has run.
+				mu.Lock()
+				if b < errBatch {
+					errBatch, firstErr = b, err
+				}
+				mu.Unlock()
 			}
 		}()
 	}
@@ -68,25 +77,26 @@ func (r *run) newEvaluator() (evaluator, []*heatmodel.Column) {
 	return ev, cols
 }
 
-// work processes batches until none is left below to.
-func (wk *worker) work(next *atomic.Int64, to int) error {
+// work processes batches until none is left below to. On an error it
+// returns the batch that failed.
+func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
 	r := wk.r
 	for {
 		b := int(next.Add(1) - 1)
 		if b >= to {
-			return nil
+			return b, nil
 		}
 		start, n := r.plan.BatchRange(b)
 		wk.place(start, n)
 		if err := r.plan.Fill(b, wk.in); err != nil {
-			return err
+			return b, err
 		}
 		for j, in := range r.sampled {
 			*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), wk.si[j])
 		}
 		z, err := wk.ev.evaluate(n, wk.out)
 		if err != nil {
-			return err
+			return b, err
 		}
 		r.saturated.Add(int64(wk.ev.saturated()))
 		for j, sp := range r.specs {
@@ -95,6 +105,9 @@ func (wk *worker) work(next *atomic.Int64, to int) error {
 				for i := range wk.out[j] {
 					wk.out[j][i] *= inv
 				}
+			}
+			if i := firstNonFinite(wk.out[j]); i >= 0 {
+				return b, wk.trialError(start, i, j)
 			}
 			if r.sketches != nil {
 				r.sketches[wk.w][j].AddSlice(wk.out[j])
@@ -108,6 +121,48 @@ func (wk *worker) work(next *atomic.Int64, to int) error {
 			r.progMu.Unlock()
 		}
 	}
+}
+
+// firstNonFinite returns the index of the first infinite or NaN value of
+// x, or −1.
+func firstNonFinite(x []float64) int {
+	for i, v := range x {
+		if v-v != 0 { // ±Inf − ±Inf and NaN − NaN are NaN
+			return i
+		}
+	}
+	return -1
+}
+
+// trialError describes trial i of the batch starting at start, whose
+// output j is not finite.
+func (wk *worker) trialError(start, i, j int) error {
+	r := wk.r
+	e := &TrialError{Trial: start + i + 1, Output: r.specs[j].Name, Value: wk.out[j][i]}
+	k := 0
+	for _, in := range r.c.inputs {
+		v := in.dist.Quantile(0.5)
+		if !in.fixed {
+			v = wk.in[k][i]
+			k++
+		}
+		e.Inputs = append(e.Inputs, fmt.Sprintf("%s = %g", in.name, v))
+	}
+	return e
+}
+
+// TrialError reports a trial whose output is not a finite number: the
+// run fails rather than report Inf or NaN figures.
+type TrialError struct {
+	Trial  int      // 1-based
+	Output string   // the output's name
+	Value  float64  // ±Inf or NaN
+	Inputs []string // the trial's inputs, "name = value" in their units
+}
+
+func (e *TrialError) Error() string {
+	return fmt.Sprintf("trial %d gave %s = %v, not a finite number, with %s; narrow the ranges of the inputs that reach such values",
+		e.Trial, e.Output, e.Value, strings.Join(e.Inputs, ", "))
 }
 
 // place points the batch's input and output columns where they are kept:

@@ -118,7 +118,10 @@ func (r *run) result() *Result {
 		res.SketchRelErr = stats.DefaultRelErr
 		res.Converged = r.converged
 	}
-	res.Warnings = r.warnings(res)
+	for _, w := range c.warnings {
+		res.Warnings = append(res.Warnings, w.Error())
+	}
+	res.Warnings = append(res.Warnings, r.warnings(res)...)
 	if s.KeepSamples {
 		res.Samples = r.samples()
 	}

@@ -72,28 +72,28 @@ func (m *HotRock) Fields() []Field { return m.fields(&hotRockEval{}) }
 func (m *HotRock) fields(e *hotRockEval) []Field {
 	h := &e.h
 	fs := []Field{
-		required(&m.Area, &h.Area, "area", SquareKilometre, "area of the stimulated or developed volume", positive),
-		required(&m.SurfaceTemp, &h.SurfaceTemp, "surface_temp", Celsius, "mean surface temperature", aboveZeroK),
-		alternative(required(&m.Gradient, &h.Gradient, "gradient", CelsiusPerKm, "geothermal gradient", positive)),
-		required(&m.MinUsefulTemp, &h.MinTemp, "min_useful_temp", Celsius, "minimum useful rock temperature", aboveZeroK),
-		defaulted(required(&m.TopDepth, &h.TopDepth, "top_depth", Kilometre, "shallowest depth to draw heat from", nonNegative), 0),
-		required(&m.MaxDepth, &h.MaxDepth, "max_depth", Kilometre, "maximum (drilling) depth", positive),
-		required(&m.RockDensity, &h.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", positive),
-		required(&m.RockHeatCapacity, &h.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", positive),
-		required(&m.FlowPerArea, &h.Flux, "flow_per_area", FlowPerKm2, "circulated water flow per unit area", positive),
+		required(&m.Area, &h.Area, "area", SquareKilometre, "area of the stimulated or developed volume", areaRange),
+		required(&m.SurfaceTemp, &h.SurfaceTemp, "surface_temp", Celsius, "mean surface temperature", surfaceTempRange),
+		alternative(required(&m.Gradient, &h.Gradient, "gradient", CelsiusPerKm, "geothermal gradient", gradientRange)),
+		required(&m.MinUsefulTemp, &h.MinTemp, "min_useful_temp", Celsius, "minimum useful rock temperature", minTempRange),
+		defaulted(required(&m.TopDepth, &h.TopDepth, "top_depth", Kilometre, "shallowest depth to draw heat from", topDepthRange), 0),
+		required(&m.MaxDepth, &h.MaxDepth, "max_depth", Kilometre, "maximum (drilling) depth", maxDepthRange),
+		required(&m.RockDensity, &h.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", rockDensityRange),
+		required(&m.RockHeatCapacity, &h.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", rockHeatRange),
+		required(&m.FlowPerArea, &h.Flux, "flow_per_area", FlowPerKm2, "circulated water flow per unit area", flowRange),
 	}
 	switch m.Fluid {
 	case heatmodel.FluidFixed:
 		fs = append(fs,
-			required(&m.FluidDensity, &h.WaterDensity, "fluid_density", KgPerCubicMetre, "fluid density", positive),
-			required(&m.FluidHeatCapacity, &h.WaterHeatCapacity, "fluid_heat_capacity", JPerKgK, "fluid specific heat capacity", positive))
+			required(&m.FluidDensity, &h.WaterDensity, "fluid_density", KgPerCubicMetre, "fluid density", fluidDensRange),
+			required(&m.FluidHeatCapacity, &h.WaterHeatCapacity, "fluid_heat_capacity", JPerKgK, "fluid specific heat capacity", fluidHeatRange))
 	case heatmodel.FluidIF97:
 		fs = append(fs,
-			required(&m.FluidTemp, &e.fluidTemp, "fluid_temp", Celsius, "mean temperature of the circulated water", aboveZeroK),
-			required(&m.FluidPressure, &e.fluidPressure, "fluid_pressure", Megapascal, "mean pressure of the circulated water", positive))
+			required(&m.FluidTemp, &e.fluidTemp, "fluid_temp", Celsius, "mean temperature of the circulated water", if97Temp(rockTempRange)),
+			required(&m.FluidPressure, &e.fluidPressure, "fluid_pressure", Megapascal, "mean pressure of the circulated water", if97Pressure(pressureRange)))
 	}
 	fs = append(fs, required(&m.ConversionEfficiency, &h.ConversionEfficiency, "conversion_efficiency", Fraction,
-		"heat-to-electricity conversion efficiency", fraction))
+		"heat-to-electricity conversion efficiency", efficiencyRange))
 	return append(fs, plantFields(&m.CapacityFactor, &h.CapacityFactor, &m.Life, &h.Life)...)
 }
 
@@ -181,7 +181,7 @@ func (e *hotRockEval) evaluate(n int, out [][]float64) (int, error) {
 }
 
 // check reports a geotherm given twice or not at all, bad layers and
-// report years, states outside IF97 region 1, and a column in which no
+// report years, and a column in which no
 // trial can hold useful heat.
 func (m *HotRock) check(p *problems, c *checked) {
 	gf := fieldOf(c.fields, &m.Gradient)
@@ -193,10 +193,6 @@ func (m *HotRock) check(p *problems, c *checked) {
 	}
 	m.checkYears(p)
 	layersOK := m.checkLayers(p)
-	if m.Fluid == heatmodel.FluidIF97 {
-		if97Temperature(p, c, &m.FluidTemp)
-		if97Pressure(p, c, &m.FluidPressure)
-	}
 	if layersOK {
 		m.checkColumn(p, c)
 	}
@@ -282,10 +278,10 @@ func (m *HotRock) checkYears(p *problems) {
 // the minimum useful temperature is reached, even in the hottest case,
 // only below the maximum depth.
 func (m *HotRock) checkColumn(p *problems, c *checked) {
-	_, tsHi, ok1 := c.support(&m.SurfaceTemp)
-	tmLo, _, ok2 := c.support(&m.MinUsefulTemp)
-	topLo, _, ok3 := c.support(&m.TopDepth)
-	_, zMax, ok4 := c.support(&m.MaxDepth)
+	_, tsHi, ok1 := c.span(&m.SurfaceTemp)
+	tmLo, _, ok2 := c.span(&m.MinUsefulTemp)
+	topLo, _, ok3 := c.span(&m.TopDepth)
+	_, zMax, ok4 := c.span(&m.MaxDepth)
 	if !ok1 || !ok2 || !ok3 || !ok4 {
 		return
 	}
@@ -293,7 +289,7 @@ func (m *HotRock) checkColumn(p *problems, c *checked) {
 	if len(m.Layers) > 0 {
 		prof, _ = heatmodel.NewProfile(siLayers(m.Layers))
 	} else {
-		_, gHi, ok := c.support(&m.Gradient)
+		_, gHi, ok := c.span(&m.Gradient)
 		if !ok {
 			return
 		}

@@ -1,6 +1,9 @@
 package rockheat
 
 import (
+	"fmt"
+	"math"
+
 	"rockheat/heatmodel"
 )
 
@@ -53,35 +56,35 @@ func (m *Reservoir) Fields() []Field { return m.fields(&reservoirEval{}) }
 func (m *Reservoir) fields(e *reservoirEval) []Field {
 	r := &e.r
 	fs := []Field{
-		required(&m.Area, &r.Area, "area", SquareKilometre, "reservoir area", positive),
-		required(&m.Thickness, &r.Thickness, "thickness", Metre, "reservoir thickness", positive),
-		required(&m.ReservoirTemp, &r.ReservoirTemp, "reservoir_temp", Celsius, "mean reservoir temperature", aboveZeroK),
+		required(&m.Area, &r.Area, "area", SquareKilometre, "reservoir area", areaRange),
+		required(&m.Thickness, &r.Thickness, "thickness", Metre, "reservoir thickness", thicknessRange),
+		required(&m.ReservoirTemp, &r.ReservoirTemp, "reservoir_temp", Celsius, "mean reservoir temperature", m.tempRange()),
 		defaulted(required(&m.ReferenceTemp, &r.ReferenceTemp, "reference_temp", Celsius,
-			"reference (rejection, dead-state) temperature", aboveZeroK), 15),
-		required(&m.Porosity, &r.Porosity, "porosity", Fraction, "porosity", porosity),
-		required(&m.RockDensity, &r.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", positive),
-		required(&m.RockHeatCapacity, &r.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", positive),
+			"reference (rejection, dead-state) temperature", refTempRange), 15),
+		required(&m.Porosity, &r.Porosity, "porosity", Fraction, "porosity", porosityRange),
+		required(&m.RockDensity, &r.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", rockDensityRange),
+		required(&m.RockHeatCapacity, &r.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", rockHeatRange),
 	}
 	switch m.Fluid {
 	case heatmodel.FluidFixed:
 		fs = append(fs,
-			required(&m.FluidDensity, &r.FluidDensity, "fluid_density", KgPerCubicMetre, "fluid density", positive),
-			required(&m.FluidHeatCapacity, &r.FluidHeatCapacity, "fluid_heat_capacity", JPerKgK, "fluid specific heat capacity", positive))
+			required(&m.FluidDensity, &r.FluidDensity, "fluid_density", KgPerCubicMetre, "fluid density", fluidDensRange),
+			required(&m.FluidHeatCapacity, &r.FluidHeatCapacity, "fluid_heat_capacity", JPerKgK, "fluid specific heat capacity", fluidHeatRange))
 	case heatmodel.FluidIF97:
 		fs = append(fs,
-			alternative(required(&m.ReservoirPressure, &e.pressure, "reservoir_pressure", Megapascal, "reservoir fluid pressure", positive)),
+			alternative(required(&m.ReservoirPressure, &e.pressure, "reservoir_pressure", Megapascal, "reservoir fluid pressure", m.pressureRange())),
 			alternative(required(&m.Depth, &e.depth, "depth", Metre,
-				"depth of the reservoir's middle, for a hydrostatic pressure", positive)))
+				"depth of the reservoir's middle, for a hydrostatic pressure", m.depthRange())))
 	}
 	fs = append(fs, required(&m.RecoveryFactor, &r.RecoveryFactor, "recovery_factor", Fraction,
-		"fraction of heat in place recovered at the wellhead", fraction))
+		"fraction of heat in place recovered at the wellhead", recoveryRange))
 	switch m.Conversion {
 	case heatmodel.ConversionEfficiency:
 		fs = append(fs, required(&m.ConversionEfficiency, &r.ConversionEfficiency, "conversion_efficiency", Fraction,
-			"heat-to-electricity conversion efficiency", fraction))
+			"heat-to-electricity conversion efficiency", efficiencyRange))
 	case heatmodel.ConversionExergy:
 		fs = append(fs, required(&m.UtilizationEfficiency, &e.utilization, "utilization_efficiency", Fraction,
-			"utilization efficiency of the available work", fraction))
+			"utilization efficiency of the available work", utilizationRange))
 	}
 	return append(fs, plantFields(&m.CapacityFactor, &r.CapacityFactor, &m.Life, &r.Life)...)
 }
@@ -89,8 +92,8 @@ func (m *Reservoir) fields(e *reservoirEval) []Field {
 // plantFields are the plant inputs every kind ends with.
 func plantFields(cf *Quantity, cfDst *heatmodel.Column, life *Quantity, lifeDst *heatmodel.Column) []Field {
 	return []Field{
-		required(cf, cfDst, "capacity_factor", Fraction, "fraction of the time the plant runs at full output", fraction),
-		required(life, lifeDst, "life", Year, "plant life", positive),
+		required(cf, cfDst, "capacity_factor", Fraction, "fraction of the time the plant runs at full output", capacityRange),
+		required(life, lifeDst, "life", Year, "plant life", lifeRange),
 	}
 }
 
@@ -104,7 +107,7 @@ func (*Reservoir) outputs() []OutputSpec {
 }
 
 // check reports a missing or doubled way to the IF97 fluid pressure, and
-// states outside IAPWS-IF97 region 1.
+// a reservoir that cannot hold heat.
 func (m *Reservoir) check(p *problems, c *checked) {
 	if m.Fluid == heatmodel.FluidIF97 {
 		pf, zf := fieldOf(c.fields, &m.ReservoirPressure), fieldOf(c.fields, &m.Depth)
@@ -115,31 +118,57 @@ func (m *Reservoir) check(p *problems, c *checked) {
 			p.add(&InputError{Input: pf.label(), Missing: true,
 				Msg: "fluid \"if97\" needs the fluid pressure: give " + pf.label() + ", or " + zf.label() + " for a hydrostatic pressure"})
 		}
-		if97Pressure(p, c, &m.ReservoirPressure)
 	}
-	if m.Fluid == heatmodel.FluidIF97 || m.Conversion == heatmodel.ConversionExergy {
-		if97Temperature(p, c, &m.ReservoirTemp)
+	checkHeat(p, c, &m.ReservoirTemp, &m.ReferenceTemp)
+}
+
+// checkHeat reports a reservoir in which no trial can hold heat: even the
+// hottest reservoir temperature is at or below the coldest reference.
+func checkHeat(p *problems, c *checked, tr, tref *Quantity) {
+	_, hot, ok1 := c.span(tr)
+	cold, _, ok2 := c.span(tref)
+	if ok1 && ok2 && hot <= cold {
+		p.input(fieldOf(c.fields, tr).label(), "reaches at most %g °C, but the reference temperature is at least %g °C: no trial holds heat; check both temperatures", hot, cold)
 	}
 }
 
-// Limits of IAPWS-IF97 region 1 (compressed liquid), in °C and MPa.
+// Limits of IAPWS-IF97 region 1 (compressed liquid).
 const (
-	if97MaxTempC     = 350 // 623.15 K
-	if97MaxPressureM = 100
+	if97MaxTempC     = 350 // °C, 623.15 K
+	if97MaxPressureM = 100 // MPa
+	if97Why          = "the limit of IAPWS-IF97 region 1 (liquid water), which fluid = \"if97\" and conversion = \"exergy\" use"
 )
 
-// if97Temperature reports a temperature input q above IF97 region 1.
-func if97Temperature(p *problems, c *checked, q *Quantity) {
-	if _, hi, ok := c.support(q); ok && hi > if97MaxTempC {
-		p.input(fieldOf(c.fields, q).label(), "reaches %g °C, above the %d °C limit of IAPWS-IF97 region 1 (liquid water) that fluid = \"if97\" and conversion = \"exergy\" use; keep it at or below %d °C", hi, if97MaxTempC, if97MaxTempC)
-	}
+// if97Temp returns r with its valid range cut at the IF97 region 1 limit.
+func if97Temp(r Ranges) Ranges {
+	r.Valid = r.Valid.below(if97MaxTempC, fmt.Sprintf("%d °C is %s", if97MaxTempC, if97Why))
+	return r
 }
 
-// if97Pressure reports a pressure input q above IF97 region 1.
-func if97Pressure(p *problems, c *checked, q *Quantity) {
-	if _, hi, ok := c.support(q); ok && hi > if97MaxPressureM {
-		p.input(fieldOf(c.fields, q).label(), "reaches %g MPa, above the %d MPa limit of IAPWS-IF97 region 1; keep it at or below %d MPa", hi, if97MaxPressureM, if97MaxPressureM)
+// if97Pressure returns r with its valid range cut at the IF97 region 1 limit.
+func if97Pressure(r Ranges) Ranges {
+	r.Valid = r.Valid.below(if97MaxPressureM, fmt.Sprintf("%d MPa is %s", if97MaxPressureM, if97Why))
+	return r
+}
+
+// tempRange is the range of m's reservoir temperature: IF97's when the
+// fluid or the conversion route takes water properties from it.
+func (m *Reservoir) tempRange() Ranges {
+	if m.Fluid == heatmodel.FluidIF97 || m.Conversion == heatmodel.ConversionExergy {
+		return if97Temp(rockTempRange)
 	}
+	return rockTempRange
+}
+
+func (m *Reservoir) pressureRange() Ranges { return if97Pressure(pressureRange) }
+
+// depthRange is the range of the depth of a hydrostatic pressure: down to
+// where the pressure reaches the IF97 limit.
+func (m *Reservoir) depthRange() Ranges {
+	r := depthRange
+	zMax := math.Floor(heatmodel.HydrostaticDepth(if97MaxPressureM * 1e6))
+	r.Valid = r.Valid.below(zMax, fmt.Sprintf("at %g m a cold water column reaches %d MPa, %s", zMax, if97MaxPressureM, if97Why))
+	return r
 }
 
 func (m *Reservoir) newEvaluator() evaluator {

@@ -57,8 +57,9 @@ func (es InputErrors) Error() string {
 	return strings.Join(lines, "\n")
 }
 
-// problems collects the InputErrors of one validation.
-type problems struct{ list InputErrors }
+// problems collects the InputErrors of one validation, and the warnings
+// that do not stop a run.
+type problems struct{ list, warnings InputErrors }
 
 func (p *problems) add(e *InputError) { p.list = append(p.list, e) }
 
@@ -80,8 +81,19 @@ func (p *problems) err() error {
 // Validate checks r as Estimate does and returns every problem found, as
 // InputErrors, or nil.
 func (r *Run) Validate() error {
-	_, err := r.resolve()
+	_, err := r.Check()
 	return err
+}
+
+// Check checks r as Estimate does and returns every problem found, as
+// InputErrors, and the warnings that would not stop the run: inputs
+// outside the ranges common in practice.
+func (r *Run) Check() (warnings InputErrors, err error) {
+	c, err := r.resolve()
+	if c != nil {
+		warnings = c.warnings
+	}
+	return warnings, err
 }
 
 // input is an input of a checked run: a field with its distribution
@@ -103,21 +115,33 @@ type checked struct {
 	fields []Field
 	byQ    map[*Quantity]int // index in inputs
 	corr   *mat.SymDense     // target rank correlations of the sampled inputs, or nil
+	// warnings are the problems that do not stop the run.
+	warnings InputErrors
 }
 
-// support returns the range of the input of quantity q in the field's own
+// span returns the range of the input of quantity q in the field's own
 // unit, and whether q is an input of the run that passed its checks.
-func (c *checked) support(q *Quantity) (lo, hi float64, ok bool) {
+func (c *checked) span(q *Quantity) (lo, hi float64, ok bool) {
 	i, ok := c.byQ[q]
 	if !ok {
 		return 0, 0, false
 	}
 	in := c.inputs[i]
-	lo, hi = in.dist.Support()
+	lo, hi = span(in.dist)
 	if in.unit != in.Unit {
 		lo, hi = in.Unit.FromSI(in.unit.ToSI(lo)), in.Unit.FromSI(in.unit.ToSI(hi))
 	}
 	return lo, hi, true
+}
+
+// span returns the range of the values a run can meet from d: its support,
+// or, for a normal or lognormal, its tailMass and 1 − tailMass quantiles
+// (the ends of a support such as a lognormal's 0 are never met).
+func span(d sampler.Distribution) (lo, hi float64) {
+	if _, ok := d.(sampler.Truncated); ok {
+		return d.Quantile(tailMass), d.Quantile(1 - tailMass)
+	}
+	return d.Support()
 }
 
 // resolve checks r and returns it checked, or every problem found.
@@ -146,8 +170,9 @@ func (r *Run) resolve() (*checked, error) {
 	}
 	r.Model.check(&p, c)
 	c.correlations(&p)
+	c.warnings = p.warnings
 	if err := p.err(); err != nil {
-		return nil, err
+		return &checked{warnings: p.warnings}, err
 	}
 	return c, nil
 }
@@ -171,13 +196,38 @@ func checkInput(p *problems, f Field) (input, bool) {
 		}
 		return in, false
 	}
-	d, err := fitDomain(q.Dist, f.Domain.in(f.Unit, in.unit), f.Doc, in.unit.Symbol)
+	d, err := fitDomain(q.Dist, f.Valid.in(f.Unit, in.unit), f.Doc, in.unit.Symbol)
 	if err != nil {
 		p.input(in.name, "%v", err)
 		return in, false
 	}
 	in.dist, in.fixed = d, q.IsFixed()
+	typical(p, in, q.Dist)
 	return in, true
+}
+
+// typical warns of an input, distributed as d before any cut at its valid
+// range, that reaches beyond the common-practice range of its kind of
+// quantity.
+func typical(p *problems, in input, d sampler.Distribution) {
+	t := in.Typical.in(in.Unit, in.unit)
+	lo, hi := span(d)
+	var beyond float64
+	switch {
+	case lo < t.Lo:
+		beyond = lo
+	case hi > t.Hi:
+		beyond = hi
+	default:
+		return
+	}
+	verb := "reaches"
+	if in.fixed {
+		verb = "is"
+	}
+	p.warnings = append(p.warnings, &InputError{Input: in.name, Msg: fmt.Sprintf(
+		"%s %g %s, outside the range %s %s common for the %s; check the value and its unit",
+		verb, beyond, in.unit.Symbol, t, in.unit.Symbol, in.Doc)})
 }
 
 func dimOf(u Unit) Dimension {
@@ -203,7 +253,7 @@ func fitDomain(d sampler.Distribution, dom Domain, doc, unit string) (sampler.Di
 			return nil, fmt.Errorf("= %v is not a finite number", x)
 		}
 		if !dom.Contains(x) {
-			return nil, fmt.Errorf("= %g is outside the valid range %s of %s (%s)", x, dom, doc, unit)
+			return nil, fmt.Errorf("= %g is outside the valid range %s of %s (%s)%s", x, dom, doc, unit, dom.why())
 		}
 		return d, nil
 	}
@@ -216,17 +266,17 @@ func fitDomain(d sampler.Distribution, dom Domain, doc, unit string) (sampler.Di
 		return d, nil
 	}
 	if !unbounded {
-		return nil, fmt.Errorf("%s reaches [%g, %g], outside the valid range %s of %s; keep min and max within it", d, lo, hi, dom, doc)
+		return nil, fmt.Errorf("%s reaches [%g, %g], outside the valid range %s of %s%s; keep min and max within it", d, lo, hi, dom, doc, dom.why())
 	}
 	if mass := d.Outside(dom.Lo, dom.Hi); mass > tailMass {
-		var fix []string
-		if lo < dom.Lo {
-			fix = append(fix, fmt.Sprintf("min = %g", dom.Lo))
+		var fix []string // the limits whose own side holds a share of the mass
+		if lo < dom.Lo && d.Outside(dom.Lo, inf) > tailMass/2 {
+			fix = append(fix, fmt.Sprintf("min = %.6g", dom.Lo))
 		}
-		if hi > dom.Hi {
-			fix = append(fix, fmt.Sprintf("max = %g", dom.Hi))
+		if hi > dom.Hi && d.Outside(-inf, dom.Hi) > tailMass/2 {
+			fix = append(fix, fmt.Sprintf("max = %.6g", dom.Hi))
 		}
-		return nil, fmt.Errorf("%s puts %.3g%% of draws outside the valid range %s of %s; add %s to truncate it, or narrow the distribution", d, 100*mass, dom, doc, strings.Join(fix, " and "))
+		return nil, fmt.Errorf("%s puts %.3g%% of draws outside the valid range %s of %s%s; add %s to truncate it, or narrow the distribution", d, 100*mass, dom, doc, dom.why(), strings.Join(fix, " and "))
 	}
 	return t.Restrict(dom.Lo, dom.Hi)
 }

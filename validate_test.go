@@ -75,7 +75,7 @@ func TestValidateProblems(t *testing.T) {
 		{"wrong dimension", func(_ *Run, m *Reservoir) { m.Area = Fixed(5, Celsius) },
 			"area_c", "a unit of temperature; give it in a unit of area such as km²"},
 		{"tail beyond the domain", func(_ *Run, m *Reservoir) { m.RecoveryFactor = Quantity{Dist: normal(0.1, 0.1)} },
-			"recovery_factor", "add min = 0 and max = 1 to truncate it"},
+			"recovery_factor", "add min = 0 to truncate it"},
 		{"no model", func(r *Run, _ *Reservoir) { r.Model = nil }, "model", "set Model"},
 		{"negative trials", func(r *Run, _ *Reservoir) { r.Trials = -5 }, "trials", "positive number of trials"},
 		{"correlated fixed input", func(r *Run, _ *Reservoir) {
@@ -86,9 +86,22 @@ func TestValidateProblems(t *testing.T) {
 		}, "correlations", `"volume" is not an input of this run`},
 		{"IF97 without a pressure", func(_ *Run, m *Reservoir) { m.Fluid = heatmodel.FluidIF97 },
 			"reservoir_pressure_mpa", "needs the fluid pressure"},
+		{"IF97 wide temperature tail", func(_ *Run, m *Reservoir) {
+			m.Fluid, m.Depth, m.ReservoirTemp = heatmodel.FluidIF97, Fixed(2000, Metre), Quantity{Dist: normal(235, 60)}
+		}, "reservoir_temp_c", "add max = 350 to truncate it"},
+		{"IF97 depth beyond 100 MPa", func(_ *Run, m *Reservoir) {
+			m.Fluid, m.Depth = heatmodel.FluidIF97, Fixed(20000, Metre)
+		}, "depth_m", "at 10186 m a cold water column reaches 100 MPa"},
+		{"no trial holds heat", func(_ *Run, m *Reservoir) {
+			m.ReservoirTemp, m.ReferenceTemp = Fixed(30, Celsius), Fixed(40, Celsius)
+		}, "reservoir_temp_c", "no trial holds heat"},
+		{"plant life too short", func(_ *Run, m *Reservoir) { m.Life = Fixed(1e-300, Year) },
+			"life_years", "outside the valid range [0.00273785, 10000]"},
+		{"area overflowing", func(_ *Run, m *Reservoir) { m.Area = Fixed(1e308, SquareKilometre) },
+			"area_km2", "outside the valid range (0, 1e+06]"},
 		{"IF97 above 350 °C", func(_ *Run, m *Reservoir) {
 			m.Fluid, m.Depth, m.ReservoirTemp = heatmodel.FluidIF97, Fixed(2000, Metre), Fixed(380, Celsius)
-		}, "reservoir_temp_c", "above the 350 °C limit of IAPWS-IF97"},
+		}, "reservoir_temp_c", "350 °C is the limit of IAPWS-IF97 region 1"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -106,8 +119,41 @@ func TestValidateProblems(t *testing.T) {
 	}
 }
 
+// TestTypicalRangeWarns: a value inside the valid range but far outside
+// common practice (a 10⁵ km² prospect, a 2000-year plant life) runs, with a
+// warning that names the input, and the IF97 template temperature
+// normal(235, 12) with min 200 is cut at 350 °C silently (its tail beyond is
+// Φ(−9.6) ≈ 4e-22, below the 1e-6 tail rule).
+func TestTypicalRangeWarns(t *testing.T) {
+	t.Parallel()
+	m := goReservoir(t)
+	m.Area, m.Life = Fixed(1e5, SquareKilometre), Fixed(2000, Year)
+	d, err := sampler.NewNormal(235, 12, 200, inf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m.Fluid, m.Depth, m.ReservoirTemp = heatmodel.FluidIF97, Fixed(2000, Metre), Quantity{Dist: d}
+	res, err := Estimate(&Run{Title: "large", Trials: 50, Model: m}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"area_km2: is 100000 km², outside the range [0, 5000] km²", "life_years: is 2000 years, outside the range [5, 100] years"} {
+		found := false
+		for _, w := range res.Warnings {
+			found = found || strings.Contains(w, want)
+		}
+		if !found {
+			t.Errorf("warnings %q lack %q", res.Warnings, want)
+		}
+	}
+	if hi := res.Outputs[0].Summary.Max; !(hi > 0) {
+		t.Errorf("max heat %g", hi)
+	}
+}
+
 // TestTailTruncatedToDomain: a normal whose tail crosses a physical limit
 // with negligible probability (< 1e-6, the stated tail rule) is cut at the
+// valid range's
 // limit, so no draw leaves the domain; the caller's quantity is unchanged.
 func TestTailTruncatedToDomain(t *testing.T) {
 	t.Parallel()
@@ -122,8 +168,8 @@ func TestTailTruncatedToDomain(t *testing.T) {
 		t.Fatal(err)
 	}
 	in := c.inputs[c.byQ[&m.CapacityFactor]]
-	if lo, hi := in.dist.Support(); lo != 0 || hi != 1 {
-		t.Errorf("support = [%g, %g], want [0, 1]", lo, hi)
+	if lo, hi := in.dist.Support(); lo != 0.01 || hi != 1 {
+		t.Errorf("support = [%g, %g], want the valid range [0.01, 1]", lo, hi)
 	}
 	if lo, _ := m.CapacityFactor.Dist.Support(); lo != -inf {
 		t.Errorf("the caller's distribution was changed: lower limit %g", lo)
@@ -159,5 +205,70 @@ func TestUnitsConvert(t *testing.T) {
 		if d := h/3.1750125e18 - 1; d > 1e-12 || d < -1e-12 {
 			t.Errorf("case %d: heat in place %.10g J, want 3.1750125e18", i, h)
 		}
+	}
+}
+
+// overflowModel is a model whose one output is its input x, except that
+// it overflows to +Inf for x above 0.999: a stand-in for physics that
+// leaves the floating-point range.
+type overflowModel struct{ X Quantity }
+
+func (*overflowModel) Kind() heatmodel.Kind { return heatmodel.KindReservoir }
+func (*overflowModel) Settings() (heatmodel.FluidSource, heatmodel.Conversion) {
+	return heatmodel.FluidFixed, heatmodel.ConversionEfficiency
+}
+func (m *overflowModel) Fields() []Field { return m.fields(&overflowEval{}) }
+func (m *overflowModel) fields(e *overflowEval) []Field {
+	return []Field{required(&m.X, &e.x, "x", Fraction, "a fraction", recoveryRange)}
+}
+func (*overflowModel) outputs() []OutputSpec {
+	return []OutputSpec{{Name: "heat_in_place", Unit: "J", Doc: "x", Scale: 1}}
+}
+func (*overflowModel) check(*problems, *checked) {}
+func (m *overflowModel) newEvaluator() evaluator {
+	e := &overflowEval{}
+	e.dst = dsts(m.fields(e))
+	return e
+}
+
+type overflowEval struct {
+	evalBase
+	x heatmodel.Column
+}
+
+func (e *overflowEval) evaluate(n int, out [][]float64) (int, error) {
+	for i := range n {
+		out[0][i] = e.x.At(i)
+		if out[0][i] > 0.999 {
+			out[0][i] = inf
+		}
+	}
+	return 0, nil
+}
+
+// TestNonFiniteOutputFailsTheRun: a trial whose output is not finite fails
+// the run, naming the trial and its inputs, and the same trial whatever the
+// number of workers (the lowest one).
+func TestNonFiniteOutputFailsTheRun(t *testing.T) {
+	t.Parallel()
+	u, err := sampler.NewUniform(0.5, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var msgs []string
+	for _, w := range []int{1, 2, 5} {
+		run := &Run{Title: "overflow", Trials: 400000, Seed: 3, Sampling: sampler.Random, Model: &overflowModel{X: Quantity{Dist: u}}}
+		_, err := Estimate(run, Options{Workers: w})
+		var te *TrialError
+		if !errors.As(err, &te) {
+			t.Fatalf("%d workers: err = %v, want a TrialError", w, err)
+		}
+		if te.Output != "heat_in_place" || !strings.HasPrefix(te.Inputs[0], "x = 0.999") {
+			t.Errorf("%d workers: %v", w, te)
+		}
+		msgs = append(msgs, te.Error())
+	}
+	if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
+		t.Errorf("the error depends on the workers:\n%s", strings.Join(msgs, "\n"))
 	}
 }

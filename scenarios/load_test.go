@@ -69,7 +69,7 @@ func TestParseProblems(t *testing.T) {
 		{"porosity 1", "porosity = { dist = \"pert\", min = 0.02, mode = 0.06, max = 0.12 }", "porosity = 1", []string{"inputs.porosity", "[0, 1)"}},
 		{"porosity range", "mode = 0.06, max = 0.12", "mode = 0.06, max = 1.2", []string{"inputs.porosity", "outside the valid range [0, 1)"}},
 		{"recovery 0", "recovery_factor = { dist = \"uniform\", min = 0.08, max = 0.20 }", "recovery_factor = 0", []string{"inputs.recovery_factor", "(0, 1]"}},
-		{"capacity > 1", "capacity_factor = 0.9", "capacity_factor = 1.5", []string{"inputs.capacity_factor", "(0, 1]"}},
+		{"capacity > 1", "capacity_factor = 0.9", "capacity_factor = 1.5", []string{"inputs.capacity_factor", "[0.01, 1]"}},
 		{"life 0", "life_years = 30", "life_years = 0", []string{"inputs.life_years"}},
 		{"negative density", "rock_density_kg_m3 = 2650", "rock_density_kg_m3 = -2650", []string{"inputs.rock_density_kg_m3"}},
 		{"negative area", "min = 3, mode = 6", "min = -3, mode = 6", []string{"inputs.area_km2", "outside the valid range"}},

@@ -68,7 +68,7 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	run.Model = c.model(&r)
 	c.inputs(run.Model, r.Inputs)
 	c.correlationEntries(run, &r)
-	c.validate(run)
+	s.Warnings = c.validate(run)
 	if len(c.problems) > 0 {
 		c.sort()
 		return nil, c.problems
@@ -200,11 +200,14 @@ func (c *checker) correlationEntries(run *rockheat.Run, r *raw) {
 
 // validate checks the run as rockheat.Estimate will, and words its
 // problems for the file: keys, lines, and fixes in TOML.
-func (c *checker) validate(run *rockheat.Run) {
-	err := run.Validate()
+func (c *checker) validate(run *rockheat.Run) (warnings Problems) {
+	ws, err := run.Check()
+	for _, w := range ws {
+		warnings = append(warnings, Problem{File: c.path, Line: c.lines["inputs."+w.Input], Key: "inputs." + w.Input, Msg: w.Msg})
+	}
 	var es rockheat.InputErrors
 	if !errors.As(err, &es) {
-		return
+		return warnings
 	}
 	for _, e := range es {
 		if e.Input == "" {
@@ -234,6 +237,7 @@ func (c *checker) validate(run *rockheat.Run) {
 		}
 		c.add(key, "%s", msg)
 	}
+	return warnings
 }
 
 // settingKey maps the settings of rockheat.InputError to file keys.

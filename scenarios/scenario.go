@@ -23,6 +23,9 @@ type Scenario struct {
 	// Path is the file's path as given; Source is its text.
 	Path   string
 	Source []byte
+	// Warnings are the file's inputs that lie outside the ranges common in
+	// practice: worth a second look, but no reason not to run.
+	Warnings Problems
 }
 
 // Input returns the quantity of the input named name (e.g. "area_km2") in

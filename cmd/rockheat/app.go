@@ -296,6 +296,9 @@ func validateCommand() *cli.Command {
 					errs = append(errs, err)
 				default:
 					fmt.Fprintf(c.App.Writer, "%s: ok (%s, %d inputs, %d trials)\n", s.Path, s.Run.Model.Kind(), s.InputCount(), s.Run.Trials)
+					for _, w := range s.Warnings {
+						fmt.Fprintf(c.App.Writer, "  warning: %v\n", w)
+					}
 				}
 			}
 			if len(errs) > 0 {
