@@ -8,6 +8,10 @@ import (
 	"rockheat/heatmodel"
 )
 
+// MaxReportYears bounds the report years of a hot-rock run: each is an
+// output, with its summary, curve and chart.
+const MaxReportYears = 100
+
 // DefaultReportYears are the times, years, of a hot-rock run's power
 // decline figures when HotRock.ReportYears is nil.
 var DefaultReportYears = []float64{0, 10, 20, 30}
@@ -262,8 +266,12 @@ func (m *HotRock) checkYears(p *problems) {
 		return
 	}
 	ys := m.ReportYears
-	if len(ys) == 0 {
+	switch {
+	case len(ys) == 0:
 		p.setting("report_years", 0, "is empty; list the years to report the power at, e.g. [0, 10, 20, 30]")
+		return
+	case len(ys) > MaxReportYears:
+		p.setting("report_years", 0, "lists %d years, more than the %d a report can show; list fewer, e.g. every 5 or 10 years", len(ys), MaxReportYears)
 		return
 	}
 	for i, y := range ys {

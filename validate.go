@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -151,6 +153,7 @@ func (r *Run) resolve() (*checked, error) {
 		p.setting("model", 0, "no model: set Model to a *rockheat.Reservoir or *rockheat.HotRock")
 		return nil, p.err()
 	}
+	checkTitle(&p, r.Title)
 	c := &checked{run: r, trials: r.Trials, byQ: map[*Quantity]int{}}
 	switch {
 	case r.Trials == 0:
@@ -175,6 +178,32 @@ func (r *Run) resolve() (*checked, error) {
 		return &checked{warnings: p.warnings}, err
 	}
 	return c, nil
+}
+
+// MaxTitleRunes bounds the length of a run's title.
+const MaxTitleRunes = 200
+
+// checkTitle reports a title that reports could not show as it is written:
+// control characters (a newline would break the text report's layout) and
+// bidirectional controls (which can reverse the text around them), or one
+// too long for a heading.
+func checkTitle(p *problems, title string) {
+	for i, c := range title {
+		switch {
+		case c == utf8.RuneError:
+			p.setting("title", 0, "is not valid UTF-8 text (byte %d); save the file as UTF-8", i)
+			return
+		case unicode.IsControl(c):
+			p.setting("title", 0, "holds a control character (%U) at byte %d; write the title on one line, as plain text", c, i)
+			return
+		case unicode.Is(unicode.Bidi_Control, c):
+			p.setting("title", 0, "holds a bidirectional control character (%U) at byte %d, which could reverse the report's text; remove it", c, i)
+			return
+		}
+	}
+	if n := utf8.RuneCountInString(title); n > MaxTitleRunes {
+		p.setting("title", 0, "has %d characters, more than the %d a report heading holds; shorten it", n, MaxTitleRunes)
+	}
 }
 
 // checkInput checks the quantity of field f: its unit, that it is given

@@ -77,6 +77,9 @@ func TestValidateProblems(t *testing.T) {
 		{"tail beyond the domain", func(_ *Run, m *Reservoir) { m.RecoveryFactor = Quantity{Dist: normal(0.1, 0.1)} },
 			"recovery_factor", "add min = 0 to truncate it"},
 		{"no model", func(r *Run, _ *Reservoir) { r.Model = nil }, "model", "set Model"},
+		{"title on two lines", func(r *Run, _ *Reservoir) { r.Title = "Vellmar\nRidge" }, "title", "control character (U+000A)"},
+		{"title reversed", func(r *Run, _ *Reservoir) { r.Title = "Vellmar \u202eegdiR" }, "title", "bidirectional control character (U+202E)"},
+		{"title too long", func(r *Run, _ *Reservoir) { r.Title = strings.Repeat("x", 201) }, "title", "more than the 200"},
 		{"negative trials", func(r *Run, _ *Reservoir) { r.Trials = -5 }, "trials", "positive number of trials"},
 		{"correlated fixed input", func(r *Run, _ *Reservoir) {
 			r.Correlations = []Correlation{{Inputs: [2]string{"area_km2", "porosity"}, Rank: 0.5}}
@@ -271,4 +274,22 @@ func TestNonFiniteOutputFailsTheRun(t *testing.T) {
 	if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
 		t.Errorf("the error depends on the workers:\n%s", strings.Join(msgs, "\n"))
 	}
+}
+
+// TestReportYearsBounded: a hot-rock run may report the power at no more
+// than MaxReportYears years (report_years = [0 … 99999] ran for 31 s and
+// wrote 36 691 charts).
+func TestReportYearsBounded(t *testing.T) {
+	t.Parallel()
+	years := make([]float64, 100000)
+	for i := range years {
+		years[i] = float64(i)
+	}
+	err := (&Run{Title: "years", Model: &HotRock{ReportYears: years}}).Validate()
+	for _, e := range inputErrors(t, err) {
+		if e.Setting == "report_years" && strings.Contains(e.Msg, "more than the 100 a report can show") {
+			return
+		}
+	}
+	t.Errorf("errors %v lack the report-years bound", err)
 }

@@ -85,16 +85,21 @@ func newPage(r *rockheat.Result) (*page, error) {
 	pg.Rows = figureRows(r, rockheat.DeclineGroup)
 	pg.Notes = append(pg.Notes, runNotes(r)...)
 
+	// The charts leave the prospect's title to the page's own text, which
+	// any script renders, rather than to the chart typeface.
+	untitled := *r
+	untitled.Title = ""
+	cr := &untitled
 	for _, o := range r.Outputs {
 		if !headline[o.Spec.Name] {
 			continue
 		}
 		cs := chartSection{Doc: o.Spec.Doc}
 		var err error
-		if cs.Exceedance, err = inlineSVG(o.Spec.Doc+": probability of exceeding", func(w io.Writer) error { return ExceedanceSVG(w, r, o.Spec.Name) }); err != nil {
+		if cs.Exceedance, err = inlineSVG(o.Spec.Doc+": probability of exceeding", func(w io.Writer) error { return ExceedanceSVG(w, cr, o.Spec.Name) }); err != nil {
 			cs.ExceedNote = "No exceedance chart: " + err.Error()
 		}
-		if cs.Tornado, err = inlineSVG(o.Spec.Doc+": tornado chart of the input swings", func(w io.Writer) error { return TornadoSVG(w, r, o.Spec.Name) }); err != nil {
+		if cs.Tornado, err = inlineSVG(o.Spec.Doc+": tornado chart of the input swings", func(w io.Writer) error { return TornadoSVG(w, cr, o.Spec.Name) }); err != nil {
 			cs.TornNote = "No tornado chart: " + err.Error()
 		}
 		pg.Charts = append(pg.Charts, cs)
@@ -107,7 +112,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 			d.Rows = append(d.Rows, yearRow{Year: fmt.Sprintf("%g", o.Spec.Year), P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10)})
 		}
 		var err error
-		if d.Chart, err = inlineSVG("thermal power decline", func(w io.Writer) error { return DeclineSVG(w, r) }); err != nil {
+		if d.Chart, err = inlineSVG("thermal power decline", func(w io.Writer) error { return DeclineSVG(w, cr) }); err != nil {
 			d.Note = "No decline chart: " + err.Error()
 		}
 		pg.Decline = d
@@ -196,6 +201,7 @@ code { font-size: .9em; }
 <p class="note">Thermal power in {{.Unit}} at each report year.</p>
 {{if .Chart}}<figure>{{.Chart}}</figure>{{else}}<p class="note">{{.Note}}</p>{{end}}
 {{end}}
+{{if .Charts}}<p class="note">The page charts the headline outputs, heat in place and electric capacity; <code>rockheat run --plots DIR</code> writes the exceedance curve and tornado chart of every output as SVG files.</p>{{end}}
 {{range .Charts}}
 <h2>Charts: {{.Doc}}</h2>
 <div class="charts">

@@ -131,10 +131,46 @@ func TestHTMLEscapes(t *testing.T) {
 	if strings.Contains(strings.ToLower(page), "<script") {
 		t.Errorf("the title's <script> reached the page unescaped")
 	}
+	// The page's own text carries the title; the charts leave it out, so
+	// that a script the chart typeface lacks still reads (see
+	// TestHTMLNonLatinTitle).
 	for _, s := range inlineSVGs(page) {
-		if _, ok := findText(parseSVG(t, s), r.Title); !ok {
-			t.Errorf("a chart does not carry the title as text")
+		if _, ok := findText(parseSVG(t, s), r.Title); ok {
+			t.Errorf("a chart carries the title, which the page already shows")
 		}
+	}
+}
+
+// TestHTMLNonLatinTitle: a title in a non-Latin script reaches the page as
+// text, in its heading and its <title>, not only inside the charts.
+func TestHTMLNonLatinTitle(t *testing.T) {
+	t.Parallel()
+	r := *demoResult(t)
+	r.Title = "Гора Вельмар 火山 (invented)"
+	var b bytes.Buffer
+	if err := HTML(&b, &r); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"<h1>" + r.Title + "</h1>", "<title>" + r.Title + " · rockheat</title>"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("page lacks %q", want)
+		}
+	}
+}
+
+// TestChartTitleShortened: a title longer than a chart can hold is cut with
+// an ellipsis at maxTitleRunes, never clipped at both ends by the renderer.
+func TestChartTitleShortened(t *testing.T) {
+	t.Parallel()
+	r := *demoResult(t)
+	r.Title = strings.Repeat("Very long invented prospect name ", 5)
+	var b bytes.Buffer
+	if err := ExceedanceSVG(&b, &r, "heat_in_place"); err != nil {
+		t.Fatal(err)
+	}
+	want := string([]rune(r.Title)[:maxTitleRunes-1]) + "…"
+	if _, ok := findText(parseSVG(t, b.String()), want); !ok {
+		t.Errorf("no shortened title %q in the chart", want)
 	}
 }
 

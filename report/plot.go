@@ -51,6 +51,25 @@ func textStyle(size vg.Length, c color.Color) text.Style {
 	return text.Style{Color: c, Font: font.From(sans, size), Handler: plot.DefaultTextHandler}
 }
 
+// maxTitleRunes is the longest prospect title a chart shows in full; a
+// longer one is shortened with an ellipsis rather than run off both sides.
+const maxTitleRunes = 70
+
+// chartTitle returns the title of a chart of r about subject: the
+// prospect's title, shortened to maxTitleRunes, over the subject; the
+// subject alone when r has no title (as in the HTML page, which shows the
+// title in its own text).
+func chartTitle(r *rockheat.Result, subject string) string {
+	t := []rune(r.Title)
+	if len(t) == 0 {
+		return subject
+	}
+	if len(t) > maxTitleRunes {
+		t = append(t[:maxTitleRunes-1], '…')
+	}
+	return string(t) + "\n" + subject
+}
+
 // newPlot returns a plot with the chart typeface, colours and title.
 func newPlot(title string) *plot.Plot {
 	p := plot.New()
@@ -176,7 +195,7 @@ func exceedanceChart(r *rockheat.Result, output string) (chart, error) {
 		}
 	}
 
-	p := newPlot(r.Title + "\nProbability of exceeding: " + o.Spec.Doc)
+	p := newPlot(chartTitle(r, "Probability of exceeding: "+o.Spec.Doc))
 	p.X.Label.Text = o.Spec.Doc + ", " + long
 	p.X.Tick.Marker = niceTicks{7}
 	p.Y.Label.Text = "probability of exceeding (%)"
@@ -462,7 +481,7 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 	bars = bars[:min(len(bars), TornadoInputs)]
 	n := len(bars)
 
-	p := newPlot(r.Title + "\nWhat moves the " + o.Spec.Doc)
+	p := newPlot(chartTitle(r, "What moves the "+o.Spec.Doc))
 	p.X.Label.Text = o.Spec.Doc + ", " + long
 	p.X.Tick.Marker = niceTicks{7}
 	names := make([]string, n)
@@ -578,7 +597,7 @@ func declineChart(r *rockheat.Result) (chart, error) {
 		p90[i], p50[i], p10[i] = plotter.XY{X: y, Y: s.P90}, plotter.XY{X: y, Y: s.P50}, plotter.XY{X: y, Y: s.P10}
 		top = math.Max(top, math.Max(s.P90, s.P10))
 	}
-	p := newPlot(r.Title + "\nThermal power decline")
+	p := newPlot(chartTitle(r, "Thermal power decline"))
 	p.X.Label.Text = "years from the start of production"
 	p.Y.Label.Text = "thermal power, " + unit
 	p.Y.Tick.Marker = niceTicks{6}

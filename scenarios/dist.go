@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"rockheat/sampler"
@@ -25,6 +26,12 @@ func (c *checker) distribution(name string, v any) (sampler.Distribution, bool) 
 	key := "inputs." + name
 	if x, ok := number(v); ok {
 		return sampler.Fixed{Value: x}, true
+	}
+	if text, ok := v.(string); ok {
+		if _, err := strconv.ParseFloat(strings.TrimSpace(text), 64); err == nil {
+			c.add(key, "= %q is text; write %s without quotes", text, strings.TrimSpace(text))
+			return nil, false
+		}
 	}
 	tbl, ok := v.(map[string]any)
 	if !ok {
@@ -72,7 +79,12 @@ func (c *checker) params(key, dname string, params [2][]string, tbl map[string]a
 			continue
 		}
 		x, ok := number(tbl[p])
+		text, isText := tbl[p].(string)
+		_, numErr := strconv.ParseFloat(strings.TrimSpace(text), 64)
 		switch {
+		case isText && numErr == nil:
+			c.add(key+"."+p, "= %q is text; write %s without quotes", text, strings.TrimSpace(text))
+			bad = true
 		case !ok:
 			c.add(key+"."+p, "= %v must be a number", quoteAny(tbl[p]))
 			bad = true

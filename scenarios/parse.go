@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"regexp"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -48,7 +49,7 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	var r raw
 	md, err := toml.Decode(string(src), &r)
 	if err != nil {
-		return nil, Problems{syntaxProblem(path, err)}
+		return nil, Problems{syntaxProblem(path, src, err)}
 	}
 	c := &checker{path: path, lines: indexLines(src), bad: map[string]bool{}}
 	for _, k := range md.Undecoded() {
@@ -241,10 +242,10 @@ func (c *checker) validate(run *rockheat.Run) (warnings Problems) {
 }
 
 // settingKey maps the settings of rockheat.InputError to file keys.
-var settingKey = map[string]string{"model": "model", "trials": "run.trials", "correlations": "correlations",
+var settingKey = map[string]string{"title": "title", "model": "model", "trials": "run.trials", "correlations": "correlations",
 	"layers": "layers", "report_years": "model.report_years"}
 
-func syntaxProblem(path string, err error) Problem {
+func syntaxProblem(path string, src []byte, err error) Problem {
 	var pe toml.ParseError
 	if errors.As(err, &pe) {
 		return Problem{File: path, Line: pe.Position.Line, Msg: "TOML syntax: " + pe.Message + "; see https://toml.io for the syntax"}
@@ -254,8 +255,56 @@ func syntaxProblem(path string, err error) Problem {
 	if m := lineRE.FindStringSubmatch(msg); m != nil {
 		fmt.Sscan(m[1], &line)
 	}
+	if m := typeRE.FindStringSubmatch(msg); m != nil {
+		return Problem{File: path, Line: line, Key: m[1], Msg: typeMessage(m[1], m[2], valueAt(src, line))}
+	}
 	msg = strings.TrimPrefix(msg, "toml: ")
 	return Problem{File: path, Line: line, Msg: msg}
 }
 
-var lineRE = regexp.MustCompile(`line (\d+)`)
+// typeMessage says what the value of key must be, in the trade's words
+// rather than Go's: dest is the decoder's destination type, value the text
+// after the key's "=".
+func typeMessage(key, dest, value string) string {
+	what := map[string]string{"integer": "a whole number", "string": "text in double quotes",
+		"float": "a number", "slice": "a list in brackets"}[dest]
+	if what == "" {
+		what = "a value of another type"
+	}
+	if unq, err := strconv.Unquote(value); err == nil && dest != "string" {
+		if _, err := strconv.ParseFloat(unq, 64); err == nil {
+			return fmt.Sprintf("is text; write %s without quotes", unq)
+		}
+	}
+	msg := "must be " + what
+	if ex, ok := typeExamples[key]; ok {
+		msg += ", e.g. " + ex
+	}
+	return msg
+}
+
+var typeExamples = map[string]string{
+	"title": `"Example prospect"`, "run.trials": "100000", "run.seed": "12345", "run.sampling": `"lhs"`,
+	"model.kind": `"reservoir"`, "model.fluid": `"if97"`, "model.conversion": `"exergy"`,
+	"model.report_years": "[0, 10, 20, 30]", "layers.bottom_km": "2.5", "layers.gradient_c_per_km": "35",
+	"correlations.inputs": `["porosity", "rock_density_kg_m3"]`, "correlations.rank": "-0.5",
+}
+
+// valueAt returns the text after "=" on line (1-based) of src, trimmed of
+// a trailing comment.
+func valueAt(src []byte, line int) string {
+	lines := strings.Split(string(src), "\n")
+	if line < 1 || line > len(lines) {
+		return ""
+	}
+	_, v, _ := strings.Cut(lines[line-1], "=")
+	if i := strings.Index(v, " #"); i >= 0 {
+		v = v[:i]
+	}
+	return strings.TrimSpace(v)
+}
+
+var (
+	lineRE = regexp.MustCompile(`line (\d+)`)
+	typeRE = regexp.MustCompile(`\(last key "([^"]+)"\): incompatible types: TOML value has type \w+; destination has type (\w+)`)
+)
