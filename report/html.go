@@ -82,7 +82,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 		Warnings:   r.Warnings,
 	}
 
-	pg.Rows = figureRows(r, rockheat.DeclineGroup)
+	pg.Rows = figureRows(r, notDecline)
 	pg.Notes = append(pg.Notes, runNotes(r)...)
 
 	// The charts leave the prospect's title to the page's own text, which

@@ -225,7 +225,7 @@ func exceedanceChart(r *rockheat.Result, output string) (chart, error) {
 		{x: s.P50 / scale, y: 50, label: "P50  " + fig(s.P50/scale) + " " + short, color: pctColor, glyph: draw.CircleGlyph{}},
 		{x: s.P10 / scale, y: 10, label: "P10  " + fig(s.P10/scale) + " " + short, color: pctColor, glyph: draw.CircleGlyph{}},
 		{x: s.Mean / scale, y: meanP, label: fmt.Sprintf("mean  %s %s (exceeded by %.0f%%)", fig(s.Mean/scale), short, meanP),
-			color: meanColor, glyph: draw.BoxGlyph{}, below: true, full: true},
+			color: meanColor, glyph: draw.BoxGlyph{}, full: true},
 	}})
 	foot := []string{"P90 is exceeded by 90% of trials (the low estimate), P10 by 10% (the high estimate)."}
 	return chart{p, 7 * vg.Inch, 4.6 * vg.Inch, footerHeight(len(foot), false), footer(r, foot, nil)}, nil
@@ -275,9 +275,10 @@ type mark struct {
 	label string
 	color color.Color
 	glyph draw.GlyphDrawer
-	// below puts the label below and left of the point, rather than
-	// above and right; full draws a guide across the whole height.
-	below, full bool
+	// full draws a guide across the whole height, with the label at the
+	// top; otherwise the guides run to the axes and the label sits above
+	// and right of the point.
+	full bool
 }
 
 // markers draws labelled points with dashed guides to the axes.
@@ -302,10 +303,15 @@ func (m *markers) Plot(c draw.Canvas, p *plot.Plot) {
 		pt := vg.Point{X: trX(mk.x), Y: trY(mk.y)}
 		sty := textStyle(9, mk.color)
 		gap := vg.Points(6)
-		if mk.below {
-			sty.XAlign, sty.YAlign = draw.XRight, draw.YTop
-			pt = pt.Add(vg.Point{X: -gap, Y: -gap})
-		} else {
+		switch {
+		case mk.full:
+			// At the top, right of its guide: the exceedance curve lies left
+			// of the mean above the mean's own probability, so nothing is
+			// hidden there (a label beside the point hid the curve and the
+			// P50 guide).
+			sty.XAlign, sty.YAlign = draw.XLeft, draw.YTop
+			pt = vg.Point{X: pt.X + gap/2, Y: c.Max.Y - gap/2}
+		default:
 			sty.XAlign, sty.YAlign = draw.XLeft, draw.YBottom
 			pt = pt.Add(vg.Point{X: gap, Y: gap / 2})
 		}
@@ -419,6 +425,14 @@ func (ch chart) writeSVG(w io.Writer) error {
 	return err
 }
 
+// inputs returns "1 input" or "n inputs".
+func inputs(n int) string {
+	if n == 1 {
+		return "1 input"
+	}
+	return fmt.Sprintf("%d inputs", n)
+}
+
 // swing is one bar of a tornado chart, in the chart unit.
 type swing struct {
 	input     string
@@ -478,7 +492,8 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 	sort.SliceStable(bars, func(i, j int) bool {
 		return math.Abs(bars[i].high-bars[i].low) > math.Abs(bars[j].high-bars[j].low)
 	})
-	bars = bars[:min(len(bars), TornadoInputs)]
+	more := len(bars) - min(len(bars), TornadoInputs) // counted before the cut
+	bars = bars[:len(bars)-more]
 	n := len(bars)
 
 	p := newPlot(chartTitle(r, "What moves the "+o.Spec.Doc))
@@ -500,13 +515,13 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 		"Each bar: the output with one input at its own 10th percentile (low) or 90th percentile (high), every other input at its median.",
 		refLine(refName) + " Inputs ranked by the width of their swing; figures in " + short + ".",
 	}
-	switch more := len(bars) - n; {
+	switch {
 	case more > 0 && still > 0:
-		caption = append(caption, fmt.Sprintf("Not shown: %d inputs with smaller swings and %d with no effect on this output.", more, still))
+		caption = append(caption, fmt.Sprintf("Not shown: %s with smaller swings and %s with no effect on this output.", inputs(more), inputs(still)))
 	case more > 0:
-		caption = append(caption, fmt.Sprintf("Not shown: %d inputs with smaller swings.", more))
+		caption = append(caption, fmt.Sprintf("Not shown: %s with smaller swings.", inputs(more)))
 	case still > 0:
-		caption = append(caption, fmt.Sprintf("Not shown: %d inputs with no effect on this output.", still))
+		caption = append(caption, fmt.Sprintf("Not shown: %s with no effect on this output.", inputs(still)))
 	}
 	legend := []swatch{{color: lowColor, text: "input low (its 10th percentile)"}, {color: highColor, text: "input high (its 90th percentile)"}}
 	height := 2.3*vg.Inch + vg.Length(n)*0.36*vg.Inch

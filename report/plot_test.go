@@ -3,6 +3,7 @@ package report
 import (
 	"bytes"
 	"encoding/xml"
+	"fmt"
 	"io"
 	"math"
 	"sort"
@@ -168,6 +169,47 @@ func figUnit(r *rockheat.Result, o rockheat.Output) (string, float64) {
 	return strings.Fields(name)[0], scale
 }
 
+// TestTornadoCaptionCounts: the caption counts the inputs left off the
+// chart before the list is cut to TornadoInputs bars, in the singular for
+// one input.
+func TestTornadoCaptionCounts(t *testing.T) {
+	t.Parallel()
+	r := *demoResult(t)
+	r.Sensitivity = append([]rockheat.Sensitivity(nil), r.Sensitivity...)
+	for j := range r.Sensitivity {
+		if r.Sensitivity[j].Output != "electric_power" {
+			continue
+		}
+		s := &r.Sensitivity[j]
+		infl := append([]rockheat.Influence(nil), s.Influences...)
+		moving := 0
+		for _, f := range infl {
+			if f.SwingLow != f.SwingHigh {
+				moving++
+			}
+		}
+		// Add inputs until TornadoInputs + 2 move the output, and one that
+		// does not.
+		for k := 0; moving < TornadoInputs+2; k++ {
+			f := rockheat.Influence{SwingLow: s.Base * 0.999, SwingHigh: s.Base * 1.001}
+			f.Input = fmt.Sprintf("extra_%d", k)
+			infl = append(infl, f)
+			moving++
+		}
+		still := rockheat.Influence{SwingLow: s.Base, SwingHigh: s.Base}
+		still.Input = "inert"
+		s.Influences = append(infl, still)
+	}
+	var b bytes.Buffer
+	if err := TornadoSVG(&b, &r, "electric_power"); err != nil {
+		t.Fatal(err)
+	}
+	want := "Not shown: 2 inputs with smaller swings and 1 input with no effect on this output."
+	if _, ok := findText(parseSVG(t, b.String()), want); !ok {
+		t.Errorf("no caption %q", want)
+	}
+}
+
 func TestExceedanceSVG(t *testing.T) {
 	t.Parallel()
 	for _, tc := range []struct {
@@ -205,6 +247,13 @@ func TestExceedanceSVG(t *testing.T) {
 				}
 				if !strings.Contains(b.String(), ">mean  "+fig(s.Mean/scale)+" "+unit) {
 					t.Errorf("no mean label with %s %s", fig(s.Mean/scale), unit)
+				}
+				// The mean's label sits at the top of the chart, above the
+				// P90 label (the highest point label), off the curve.
+				for _, x := range texts {
+					if strings.HasPrefix(x.s, "mean  ") && !(x.y < ys[0]) {
+						t.Errorf("mean label at SVG y %g, not above the P90 label at %g", x.y, ys[0])
+					}
 				}
 				for _, want := range []string{r.Title, "Probability of exceeding: " + o.Spec.Doc, "Estimates, not a reserves statement."} {
 					if _, ok := findText(texts, want); !ok {

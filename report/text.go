@@ -24,7 +24,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 
 	level := r.Confidence
 	rows := [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
-	for _, f := range figureRows(r, "") {
+	for _, f := range figureRows(r, notYearZero) {
 		rows = append(rows, []string{f.Doc, f.P90, f.P50, f.P10, f.Mean, f.Unit}, []string{"", f.P90CI, f.P50CI, f.P10CI, "", ""})
 	}
 	table(&b, rows, "lrrrrl")

@@ -65,12 +65,11 @@ type figureRow struct {
 	P90CI, P50CI, P10CI string
 }
 
-// figureRows formats the summary of every output of r, leaving out the
-// outputs of group skip (none for "").
-func figureRows(r *rockheat.Result, skip string) []figureRow {
+// figureRows formats the summary of the outputs of r that keep accepts.
+func figureRows(r *rockheat.Result, keep func(rockheat.OutputSpec) bool) []figureRow {
 	var rows []figureRow
 	for _, o := range r.Outputs {
-		if skip != "" && o.Spec.Group == skip {
+		if !keep(o.Spec) {
 			continue
 		}
 		unit, _, scale := outputUnit(r, o)
@@ -81,6 +80,13 @@ func figureRows(r *rockheat.Result, skip string) []figureRow {
 	}
 	return rows
 }
+
+// notYearZero keeps every output but the thermal power at year 0, which
+// is the initial thermal power, shown once.
+func notYearZero(o rockheat.OutputSpec) bool { return !(o.Group == rockheat.DeclineGroup && o.Year == 0) }
+
+// notDecline keeps every output but the power at the report years.
+func notDecline(o rockheat.OutputSpec) bool { return o.Group != rockheat.DeclineGroup }
 
 // ciText formats a confidence interval in a unit of the given scale, or
 // says "n/a" where the run is too short to give one at its level.
