@@ -384,3 +384,44 @@ func TestPrecisionSensitivitySample(t *testing.T) {
 		t.Errorf("sensitivities differ:\n%+v\n%+v", prec.Sensitivity[0], str.Sensitivity[0])
 	}
 }
+
+// TestSensitivityOnlyFormulaInputs: an output's sensitivity lists only the
+// inputs its formula uses (docs/references.md §1: heat in place
+// A·h·ρC·(Tr − Tref) has no recovery factor, conversion efficiency,
+// capacity factor or life), in every format, since they come from Result;
+// electric capacity uses them all.
+func TestSensitivityOnlyFormulaInputs(t *testing.T) {
+	t.Parallel()
+	ex, _ := scenarios.LookupExample("demo")
+	s, err := scenarios.Parse("demo", ex.Text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 3000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	listed := func(output string) map[string]bool {
+		m := map[string]bool{}
+		for _, sens := range res.Sensitivity {
+			if sens.Output == output {
+				for _, f := range sens.Influences {
+					m[f.Input] = true
+				}
+			}
+		}
+		return m
+	}
+	heat, power := listed("heat_in_place"), listed("electric_power")
+	for _, in := range []string{"recovery_factor", "conversion_efficiency"} {
+		if heat[in] {
+			t.Errorf("heat in place lists %s, which its formula does not use", in)
+		}
+		if !power[in] {
+			t.Errorf("electric capacity does not list %s", in)
+		}
+	}
+	if !heat["area_km2"] || len(power) != 7 {
+		t.Errorf("heat in place lists %v; electric capacity lists %d inputs, want the 7 sampled", heat, len(power))
+	}
+}

@@ -109,20 +109,38 @@ func (m *HotRock) reportYears() []float64 {
 	return m.ReportYears
 }
 
+// The inputs each hot-rock output depends on, by Field.Base. The rock's
+// density and heat capacity cancel from the initial power E0/τ.
+var (
+	hotRockColumn  = []string{"surface_temp", "gradient", "min_useful_temp", "top_depth", "max_depth"}
+	hotRockRock    = []string{"rock_density", "rock_heat_capacity"}
+	hotRockFlow    = []string{"flow_per_area", "fluid_density", "fluid_heat_capacity", "fluid_temp", "fluid_pressure"}
+	hotRockHeat    = uses([]string{"area"}, hotRockColumn, hotRockRock)
+	hotRockTau     = uses(hotRockColumn, hotRockRock, hotRockFlow)
+	hotRockInitial = uses([]string{"area"}, hotRockColumn, hotRockFlow)
+	hotRockDecline = uses(hotRockHeat, hotRockFlow)
+	hotRockMined   = uses(hotRockDecline, []string{"life"})
+	hotRockPower   = uses(hotRockMined, []string{"conversion_efficiency", "capacity_factor"})
+)
+
 func (m *HotRock) outputs() []OutputSpec {
 	specs := []OutputSpec{
-		{Name: "heat_in_place", Unit: "J", Doc: "useful heat in place", Scale: 1},
-		{Name: "recoverable_heat", Unit: "J", Doc: "heat mined over the life", Scale: 1},
-		{Name: "time_constant", Unit: "years", Doc: "time constant of the decline", Scale: year},
-		{Name: "initial_thermal_power", Unit: "MWth", Doc: "initial thermal power", Scale: mega},
+		{Name: "heat_in_place", Unit: "J", Doc: "useful heat in place", Scale: 1, DependsOn: hotRockHeat},
+		{Name: "recoverable_heat", Unit: "J", Doc: "heat mined over the life", Scale: 1, DependsOn: hotRockMined},
+		{Name: "time_constant", Unit: "years", Doc: "time constant of the decline", Scale: year, DependsOn: hotRockTau},
+		{Name: "initial_thermal_power", Unit: "MWth", Doc: "initial thermal power", Scale: mega, DependsOn: hotRockInitial},
 	}
 	for _, y := range m.reportYears() {
+		dep := hotRockDecline
+		if y == 0 {
+			dep = hotRockInitial
+		}
 		specs = append(specs, OutputSpec{Name: fmt.Sprintf("%s_%g_years", DeclineGroup, y), Unit: "MWth",
-			Doc: fmt.Sprintf("thermal power at year %g", y), Scale: mega, Group: DeclineGroup, Year: y})
+			Doc: fmt.Sprintf("thermal power at year %g", y), Scale: mega, Group: DeclineGroup, Year: y, DependsOn: dep})
 	}
 	return append(specs,
-		OutputSpec{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega},
-		OutputSpec{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega},
+		OutputSpec{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega, DependsOn: hotRockMined},
+		OutputSpec{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega, DependsOn: hotRockPower},
 	)
 }
 

@@ -69,6 +69,18 @@ type OutputSpec struct {
 	// its Year (DeclineGroup: the hot-rock power at each report year).
 	Group string
 	Year  float64
+	// DependsOn lists the Field.Base names of the inputs the output's
+	// formula uses: only they are ranked in its sensitivity.
+	DependsOn []string
+}
+
+// uses returns the union of lists of input bases.
+func uses(lists ...[]string) []string {
+	var all []string
+	for _, l := range lists {
+		all = append(all, l...)
+	}
+	return all
 }
 
 // DeclineGroup is the OutputSpec.Group of the hot-rock thermal power at

@@ -97,12 +97,21 @@ func plantFields(cf *Quantity, cfDst *heatmodel.Column, life *Quantity, lifeDst 
 	}
 }
 
+// The inputs each reservoir output depends on, by Field.Base.
+var (
+	reservoirHeat = []string{"area", "thickness", "reservoir_temp", "reference_temp", "porosity", "rock_density",
+		"rock_heat_capacity", "fluid_density", "fluid_heat_capacity", "reservoir_pressure", "depth"}
+	reservoirRecoverable = uses(reservoirHeat, []string{"recovery_factor"})
+	reservoirThermal     = uses(reservoirRecoverable, []string{"life"})
+	reservoirElectric    = uses(reservoirThermal, []string{"conversion_efficiency", "utilization_efficiency", "capacity_factor"})
+)
+
 func (*Reservoir) outputs() []OutputSpec {
 	return []OutputSpec{
-		{Name: "heat_in_place", Unit: "J", Doc: "heat in place", Scale: 1},
-		{Name: "recoverable_heat", Unit: "J", Doc: "recoverable heat", Scale: 1},
-		{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega},
-		{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega},
+		{Name: "heat_in_place", Unit: "J", Doc: "heat in place", Scale: 1, DependsOn: reservoirHeat},
+		{Name: "recoverable_heat", Unit: "J", Doc: "recoverable heat", Scale: 1, DependsOn: reservoirRecoverable},
+		{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega, DependsOn: reservoirThermal},
+		{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega, DependsOn: reservoirElectric},
 	}
 }
 

@@ -2,6 +2,7 @@ package rockheat
 
 import (
 	"math"
+	"slices"
 
 	"rockheat/heatmodel"
 	"rockheat/stats"
@@ -29,7 +30,15 @@ func (r *run) sensitivity() []Sensitivity {
 	}
 	out := make([]Sensitivity, len(r.specs))
 	parallel(len(r.specs), r.s.workers, func(j int) {
-		infl := stats.RankedSensitivity(r.names, inRanks, stats.Ranks(sensOut[j]))
+		// Only the inputs the output's formula uses are ranked.
+		var names []string
+		var ranks [][]float64
+		for k, in := range r.sampled {
+			if slices.Contains(r.specs[j].DependsOn, in.Base) {
+				names, ranks = append(names, r.names[k]), append(ranks, inRanks[k])
+			}
+		}
+		infl := stats.RankedSensitivity(names, ranks, stats.Ranks(sensOut[j]))
 		sens := Sensitivity{Output: r.specs[j].Name, Base: base[j]}
 		for _, f := range infl {
 			k := index[f.Input]
