@@ -51,6 +51,7 @@ type worker struct {
 	si                [][]float64
 	in, out           [][]float64 // the current batch's draws and outputs
 	localIn, localOut [][]float64 // where they go when nothing keeps them
+	fill              [][]float64 // the columns of in the plan draws
 }
 
 func (r *run) newWorker(w int) *worker {
@@ -86,30 +87,12 @@ func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
 		if b >= to {
 			return b, nil
 		}
-		start, n := r.plan.BatchRange(b)
-		wk.place(start, n)
-		if err := r.plan.Fill(b, wk.in); err != nil {
-			return b, err
-		}
-		for j, in := range r.sampled {
-			*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), wk.si[j])
-		}
-		z, err := wk.ev.evaluate(n, wk.out)
+		n, z, err := wk.batch(b, nil)
 		if err != nil {
 			return b, err
 		}
-		r.saturated.Add(int64(wk.ev.saturated()))
-		for j, sp := range r.specs {
-			if sp.Scale != 1 {
-				inv := 1 / sp.Scale
-				for i := range wk.out[j] {
-					wk.out[j][i] *= inv
-				}
-			}
-			if i := firstNonFinite(wk.out[j]); i >= 0 {
-				return b, wk.trialError(start, i, j)
-			}
-			if r.sketches != nil {
+		if r.sketches != nil {
+			for j := range r.specs {
 				r.sketches[wk.w][j].AddSlice(wk.out[j])
 			}
 		}
@@ -121,6 +104,57 @@ func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
 			r.progMu.Unlock()
 		}
 	}
+}
+
+// batch draws and evaluates batch b into wk.out, in report units, and
+// returns its number of trials and of trials without heat. given, if not
+// nil, holds for each sampled input either nil (drawn by the plan) or the
+// batch's values of an input drawn elsewhere (a portfolio's shared input).
+func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
+	r := wk.r
+	start, n := r.plan.BatchRange(b)
+	wk.place(start, n)
+	for j, g := range given {
+		if g != nil {
+			copy(wk.in[j], g[:n])
+		}
+	}
+	if err := r.plan.Fill(b, wk.drawn()); err != nil {
+		return n, 0, err
+	}
+	for j, in := range r.sampled {
+		*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), wk.si[j])
+	}
+	z, err := wk.ev.evaluate(n, wk.out)
+	if err != nil {
+		return n, 0, err
+	}
+	r.saturated.Add(int64(wk.ev.saturated()))
+	for j, sp := range r.specs {
+		if sp.Scale != 1 {
+			inv := 1 / sp.Scale
+			for i := range wk.out[j] {
+				wk.out[j][i] *= inv
+			}
+		}
+		if i := firstNonFinite(wk.out[j]); i >= 0 {
+			return n, 0, wk.trialError(start, i, j)
+		}
+	}
+	return n, z, nil
+}
+
+// drawn returns the columns of the batch's inputs that the plan draws.
+func (wk *worker) drawn() [][]float64 {
+	if wk.r.drawn == nil {
+		return wk.in
+	}
+	cols := wk.fill[:0]
+	for _, j := range wk.r.drawn {
+		cols = append(cols, wk.in[j])
+	}
+	wk.fill = cols
+	return cols
 }
 
 // firstNonFinite returns the index of the first infinite or NaN value of

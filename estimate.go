@@ -5,6 +5,8 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"gonum.org/v1/gonum/mat"
+
 	"rockheat/heatmodel"
 	"rockheat/sampler"
 	"rockheat/stats"
@@ -15,7 +17,11 @@ type run struct {
 	c       *checked
 	s       *settings
 	specs   []OutputSpec
-	sampled []input // the sampled inputs, in the order of dists
+	sampled []input // the sampled inputs
+	// drawn, if not nil, lists the sampled inputs (indices into sampled)
+	// that the plan draws, in the order of its distributions; the others
+	// are given batch by batch (a portfolio's shared inputs).
+	drawn   []int
 	dists   []sampler.Distribution
 	names   []string // names of the sampled inputs
 	plan    *sampler.Plan
@@ -63,28 +69,56 @@ func Estimate(rn *Run, opt Options) (*Result, error) {
 }
 
 // newRun sets up the draws and the buffers of a run.
-func newRun(c *checked, s *settings) *run {
+func newRun(c *checked, s *settings) *run { return newRunGiven(c, s, nil) }
+
+// newRunGiven is newRun with the sampled inputs named in given left to the
+// caller, batch by batch (see worker.batch); they may not be correlated.
+func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 	r := &run{c: c, s: s, specs: c.run.Model.outputs()}
+	var keep []int // indices, among the sampled inputs, of those drawn
 	for _, in := range c.inputs {
-		if !in.fixed {
-			r.sampled = append(r.sampled, in)
-			r.dists = append(r.dists, in.dist)
-			r.names = append(r.names, in.name)
+		if in.fixed {
+			continue
 		}
+		if !given[in.name] {
+			keep = append(keep, len(r.sampled))
+			r.dists = append(r.dists, in.dist)
+		}
+		r.sampled = append(r.sampled, in)
+		r.names = append(r.names, in.name)
+	}
+	corr := c.corr
+	if len(keep) < len(r.sampled) {
+		r.drawn = append([]int{}, keep...) // not nil, even when empty
+		corr = subMatrix(c.corr, keep)
 	}
 	r.plan = sampler.NewPlan(r.dists, sampler.Config{Trials: s.planTrials, Seed: s.seed, Method: c.run.Sampling,
-		Correlation: c.corr, PerBatch: s.streaming})
+		Correlation: corr, PerBatch: s.streaming})
 	// The sensitivity sample is the first trials of the run.
 	r.sensN = min(s.firstRound(), SensitivityTrials)
 	if s.KeepSamples {
-		r.keepIn = columns(len(r.dists), s.trials)
+		r.keepIn = columns(len(r.sampled), s.trials)
 	} else {
-		r.sensIn = columns(len(r.dists), r.sensN)
+		r.sensIn = columns(len(r.sampled), r.sensN)
 	}
 	if s.streaming {
 		r.sensOut = columns(len(r.specs), r.sensN)
 	}
 	return r
+}
+
+// subMatrix returns the rows and columns keep of m, or nil for a nil m.
+func subMatrix(m *mat.SymDense, keep []int) *mat.SymDense {
+	if m == nil {
+		return nil
+	}
+	sub := mat.NewSymDense(len(keep), nil)
+	for a, i := range keep {
+		for b, j := range keep[a:] {
+			sub.SetSym(a, a+b, m.At(i, j))
+		}
+	}
+	return sub
 }
 
 // startSketches gives every worker a sketch per output.

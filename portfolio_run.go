@@ -1,0 +1,385 @@
+package rockheat
+
+import (
+	"math/rand/v2"
+	"runtime"
+	"slices"
+	"sync"
+	"sync/atomic"
+
+	"gonum.org/v1/gonum/mat"
+
+	"rockheat/sampler"
+	"rockheat/stats"
+	"rockheat/stats/radix"
+)
+
+// Stream tags of a portfolio's random streams, mixed with its seed.
+const (
+	prospectStream = 1 + iota
+	sharedStream
+	successStream
+	outcomeStream
+)
+
+// mixSeed derives the seed of stream (tag, i) of a run seeded with seed
+// (the SplitMix64 finaliser, Steele, Lea & Flood 2014), so that every
+// prospect and every shared input has a stream of its own.
+func mixSeed(seed, tag, i uint64) uint64 {
+	z := seed + 0x9e3779b97f4a7c15*(tag<<32|(i+1))
+	z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9
+	z = (z ^ (z >> 27)) * 0x94d049bb133111eb
+	return z ^ (z >> 31)
+}
+
+// EstimatePortfolio runs the prospects of p together, trial by trial, and
+// summarises each prospect and the unrisked and risked totals. It checks p
+// first and returns every problem found as InputErrors. Options.Trials,
+// Seed, Workers, Confidence and KeepSamples apply; a precision target does
+// not (an *OptionError). The same portfolio and seed give bit-identical
+// results for any number of workers; memory does not grow with the trials
+// (quantile sketches), except when every trial is kept.
+func EstimatePortfolio(p *Portfolio, opt Options) (*PortfolioResult, error) {
+	c, err := p.check()
+	if err != nil {
+		return nil, err
+	}
+	if opt.Precision != 0 {
+		return nil, optionErrorf([]string{"Precision"}, "a portfolio runs a fixed number of trials; drop the precision target")
+	}
+	pr := &portfolioRun{c: c, trials: c.trials, seed: p.Seed, workers: opt.Workers, keep: opt.KeepSamples,
+		stat: stats.Options{Confidence: opt.Confidence}}
+	if opt.Trials > 0 {
+		pr.trials = opt.Trials
+	}
+	if opt.Seed != nil {
+		pr.seed = *opt.Seed
+	}
+	if pr.workers <= 0 {
+		pr.workers = runtime.GOMAXPROCS(0)
+	}
+	if err := pr.stat.Validate(); err != nil {
+		return nil, &OptionError{Options: []string{"Confidence"}, Msg: err.Error()}
+	}
+	if pr.trials > MaxTrials {
+		return nil, optionErrorf([]string{"Trials"}, "%d trials is more than the %d a run may take", pr.trials, int64(MaxTrials))
+	}
+	if pr.keep && pr.trials > ExactLimit {
+		return nil, optionErrorf([]string{"KeepSamples"}, "keeping every trial works for runs of up to %d trials; this portfolio has %d: use fewer trials, or do not keep the trials", ExactLimit, pr.trials)
+	}
+	pr.setUp()
+	if err := pr.runBatches(); err != nil {
+		return nil, err
+	}
+	return pr.result(), nil
+}
+
+// portfolioRun is the state of one EstimatePortfolio.
+type portfolioRun struct {
+	c       *checkedPortfolio
+	trials  int
+	seed    uint64
+	workers int
+	keep    bool
+	stat    stats.Options
+	runs    []*run          // one per prospect
+	outIdx  [][]int         // [prospect][PortfolioOutputs index] → index of the run's output
+	given   [][]int         // [prospect][sampled input] → shared draw, or −1
+	shared  []*sampler.Plan // one per shared draw
+	outcome []int           // prospects in outcome correlations
+	outTgt  *mat.SymDense   // their target matrix
+	success []int           // prospects in success correlations
+	sucTgt  *mat.SymDense
+	batches int
+
+	none, target atomic.Int64 // trials with no success; reaching the target
+	zero         []atomic.Int64
+	parts        []*portfolioSketches // one per worker
+	samples      *Samples
+}
+
+// portfolioSketches are one worker's sketches of a portfolio's figures.
+type portfolioSketches struct {
+	unrisked, risked [][]*stats.Sketch // [prospect][output], gross and net risked
+	total, riskTotal []*stats.Sketch   // [output]
+}
+
+func newSketches(n int) []*stats.Sketch {
+	s := make([]*stats.Sketch, n)
+	for i := range s {
+		s[i] = stats.NewSketch(stats.DefaultRelErr)
+	}
+	return s
+}
+
+// setUp builds each prospect's run, with its own seed and the shared
+// draws left to the portfolio, and the shared inputs' plans.
+func (pr *portfolioRun) setUp() {
+	c := pr.c
+	n := len(c.prospects)
+	pr.zero = make([]atomic.Int64, n)
+	for i, chk := range c.prospects {
+		s := &settings{trials: pr.trials, seed: mixSeed(pr.seed, prospectStream, uint64(i)), workers: 1,
+			stat: pr.stat, streaming: true, planTrials: pr.trials, maxTrials: pr.trials}
+		given := map[string]bool{}
+		for _, d := range c.shared {
+			if slices.Contains(d.to, i) {
+				given[d.name] = true
+			}
+		}
+		r := newRunGiven(chk, s, given)
+		r.sensN, r.sensIn, r.sensOut = 0, nil, nil // no sensitivity in a portfolio
+		pr.runs = append(pr.runs, r)
+		idx := make([]int, len(PortfolioOutputs))
+		for o, name := range PortfolioOutputs {
+			idx[o] = slices.IndexFunc(r.specs, func(sp OutputSpec) bool { return sp.Name == name })
+		}
+		pr.outIdx = append(pr.outIdx, idx)
+		g := make([]int, len(r.sampled))
+		for j, in := range r.sampled {
+			g[j] = slices.IndexFunc(c.shared, func(d sharedDraw) bool { return d.name == in.name && slices.Contains(d.to, i) })
+		}
+		pr.given = append(pr.given, g)
+	}
+	for k, d := range c.shared {
+		pr.shared = append(pr.shared, sampler.NewPlan([]sampler.Distribution{d.dist}, sampler.Config{Trials: pr.trials,
+			Seed: mixSeed(pr.seed, sharedStream, uint64(k)), Method: c.p.Sampling, PerBatch: true}))
+	}
+	pr.outcome, pr.outTgt = involved(c.p.Correlations, c.p.Prospects, c.outcome)
+	pr.success, pr.sucTgt = involved(c.p.SuccessCorrelations, c.p.Prospects, c.success)
+	pr.batches = pr.runs[0].plan.Batches()
+	if pr.keep {
+		pr.samples = pr.newSamples()
+	}
+}
+
+// involved returns the prospects named in pairs, in portfolio order, and
+// their rows and columns of the target matrix m.
+func involved(pairs []ProspectCorrelation, prospects []Prospect, m *mat.SymDense) ([]int, *mat.SymDense) {
+	if m == nil {
+		return nil, nil
+	}
+	var idx []int
+	for i, p := range prospects {
+		if slices.ContainsFunc(pairs, func(pc ProspectCorrelation) bool { return pc.Prospects[0] == p.Name || pc.Prospects[1] == p.Name }) {
+			idx = append(idx, i)
+		}
+	}
+	return idx, subMatrix(m, idx)
+}
+
+// runBatches runs every batch on the workers; the error of the lowest
+// failing batch is returned, whatever the workers.
+func (pr *portfolioRun) runBatches() error {
+	var (
+		next     atomic.Int64
+		wg       sync.WaitGroup
+		mu       sync.Mutex
+		errBatch = pr.batches
+		firstErr error
+	)
+	nw := max(1, min(pr.workers, pr.batches))
+	pr.parts = make([]*portfolioSketches, nw)
+	for w := range nw {
+		pw := pr.newWorker()
+		pr.parts[w] = pw.sk
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				b := int(next.Add(1) - 1)
+				if b >= pr.batches {
+					return
+				}
+				if err := pw.batch(b); err != nil {
+					mu.Lock()
+					if b < errBatch {
+						errBatch, firstErr = b, err
+					}
+					mu.Unlock()
+					return
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	return firstErr
+}
+
+// portfolioWorker is one goroutine's share of a portfolio run.
+type portfolioWorker struct {
+	pr      *portfolioRun
+	wks     []*worker     // one per prospect
+	shared  [][]float64   // the batch's shared draws
+	given   [][][]float64 // [prospect][sampled input] → shared draw, or nil
+	success [][]float64   // [prospect] the batch's success draws, uniform on [0, 1)
+	total   [][]float64   // [output] unrisked total of the batch
+	risked  [][]float64   // [output] risked total of the batch
+	tmp     []float64
+	order   [][]int32 // [prospect] scratch for outcome reordering
+	sk      *portfolioSketches
+}
+
+func (pr *portfolioRun) newWorker() *portfolioWorker {
+	n := len(pr.runs)
+	size := min(sampler.BatchSize, pr.trials)
+	pw := &portfolioWorker{pr: pr, shared: columns(len(pr.shared), size), success: columns(n, size),
+		total: columns(len(PortfolioOutputs), size), risked: columns(len(PortfolioOutputs), size), tmp: make([]float64, size),
+		order: make([][]int32, n),
+		sk:    &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))}}
+	for i, r := range pr.runs {
+		pw.wks = append(pw.wks, r.newWorker(0))
+		g := make([][]float64, len(r.sampled))
+		for j, k := range pr.given[i] {
+			if k >= 0 {
+				g[j] = pw.shared[k]
+			}
+		}
+		pw.given = append(pw.given, g)
+		pw.sk.unrisked = append(pw.sk.unrisked, newSketches(len(PortfolioOutputs)))
+		pw.sk.risked = append(pw.sk.risked, newSketches(len(PortfolioOutputs)))
+	}
+	return pw
+}
+
+// batch runs batch b of every prospect and adds it to the sketches.
+func (pw *portfolioWorker) batch(b int) error {
+	pr := pw.pr
+	for k, plan := range pr.shared {
+		if err := plan.Fill(b, [][]float64{pw.shared[k]}); err != nil {
+			return err
+		}
+	}
+	var n int
+	for i, wk := range pw.wks {
+		m, z, err := wk.batch(b, pw.given[i])
+		if err != nil {
+			return err
+		}
+		n = m
+		pr.zero[i].Add(int64(z))
+	}
+	if pr.outTgt != nil {
+		if err := pw.correlateOutcomes(b, n); err != nil {
+			return err
+		}
+	}
+	if err := pw.drawSuccess(b, n); err != nil {
+		return err
+	}
+	pw.add(b, n)
+	return nil
+}
+
+// correlateOutcomes reorders the trials of the prospects in outcome
+// correlations so that their electric capacities have the target rank
+// correlations (Iman–Conover on their ranks, so that each prospect's
+// trials move whole: its inputs and outputs stay together).
+func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
+	pr := pw.pr
+	const power = 3 // index of electric_power in PortfolioOutputs
+	ranks := make([][]float64, len(pr.outcome))
+	for a, i := range pr.outcome {
+		col := pw.wks[i].out[pr.outIdx[i][power]][:n]
+		keys := make([]uint64, n)
+		idx := make([]int32, n)
+		for t, v := range col {
+			keys[t], idx[t] = radix.Key(v), int32(t)
+		}
+		_, order := radix.Sort(keys, make([]uint64, n), 0, idx, make([]int32, n))
+		pw.order[i] = order
+		ranks[a] = make([]float64, n)
+		for r, t := range order {
+			ranks[a][t] = float64(r)
+		}
+	}
+	rng := rand.New(rand.NewPCG(mixSeed(pr.seed, outcomeStream, 0), uint64(b)))
+	if err := sampler.ImanConover(ranks, pr.outTgt, rng); err != nil {
+		return err
+	}
+	for a, i := range pr.outcome {
+		perm := make([]int32, n) // trial t takes the trial perm[t] drew
+		for t, r := range ranks[a] {
+			perm[t] = pw.order[i][int(r)]
+		}
+		wk := pw.wks[i]
+		for _, col := range append(append([][]float64(nil), wk.out...), wk.in...) {
+			for t, src := range perm {
+				pw.tmp[t] = col[src]
+			}
+			copy(col[:n], pw.tmp[:n])
+		}
+	}
+	return nil
+}
+
+// drawSuccess draws each prospect's success in each trial, with the target
+// rank correlations among the success draws.
+func (pw *portfolioWorker) drawSuccess(b, n int) error {
+	pr := pw.pr
+	rng := rand.New(rand.NewPCG(mixSeed(pr.seed, successStream, 0), uint64(b)))
+	for i := range pw.success {
+		u := pw.success[i][:n]
+		for t := range u {
+			u[t] = rng.Float64()
+		}
+	}
+	if pr.sucTgt == nil {
+		return nil
+	}
+	cols := make([][]float64, len(pr.success))
+	for a, i := range pr.success {
+		cols[a] = pw.success[i][:n]
+	}
+	return sampler.ImanConover(cols, pr.sucTgt, rng)
+}
+
+// add adds the batch's figures to the worker's sketches and the run's
+// counts, and keeps its trials if asked.
+func (pw *portfolioWorker) add(b, n int) {
+	pr, c := pw.pr, pw.pr.c
+	for o := range PortfolioOutputs {
+		clear(pw.total[o][:n])
+		clear(pw.risked[o][:n])
+	}
+	none, reach := 0, 0
+	for i, wk := range pw.wks {
+		p, share := c.chance[i], c.share[i]
+		for o := range PortfolioOutputs {
+			col := wk.out[pr.outIdx[i][o]][:n]
+			pw.sk.unrisked[i][o].AddSlice(col)
+			for t, v := range col {
+				net := share * v
+				pw.total[o][t] += net
+				if pw.success[i][t] < p {
+					pw.risked[o][t] += net
+					pw.tmp[t] = net
+				} else {
+					pw.tmp[t] = 0
+				}
+			}
+			pw.sk.risked[i][o].AddSlice(pw.tmp[:n])
+		}
+	}
+	for t := range n {
+		succeeded := false
+		for i := range pw.wks {
+			succeeded = succeeded || pw.success[i][t] < c.chance[i]
+		}
+		if !succeeded {
+			none++
+		}
+		if c.p.TargetMWe > 0 && pw.risked[3][t] >= c.p.TargetMWe {
+			reach++
+		}
+	}
+	for o := range PortfolioOutputs {
+		pw.sk.total[o].AddSlice(pw.total[o][:n])
+		pw.sk.riskTotal[o].AddSlice(pw.risked[o][:n])
+	}
+	pr.none.Add(int64(none))
+	pr.target.Add(int64(reach))
+	if pr.samples != nil {
+		pw.keep(b, n)
+	}
+}

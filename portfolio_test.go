@@ -1,0 +1,190 @@
+package rockheat
+
+import (
+	"errors"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+
+	"rockheat/sampler"
+)
+
+// normalProspect is goReservoir with every input fixed but a normal
+// recovery factor N(0.15, 0.02²), so that its electric capacity is normal:
+// Pe = η·R·Q/(F·L) is linear in R (docs/references.md §1). The normal's
+// tails beyond (0, 1] hold 3e-14 of its probability, below the 1e-6 tail
+// rule, so the cut at the valid range leaves it normal.
+func normalProspect(t *testing.T, name string, chance float64) Prospect {
+	t.Helper()
+	m := goReservoir(t)
+	m.Area = Fixed(6, SquareKilometre)
+	d, err := sampler.NewNormal(0.15, 0.02, -inf, inf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m.RecoveryFactor = Quantity{Dist: d}
+	return Prospect{Name: name, Run: &Run{Title: name, Model: m}, Chance: chance}
+}
+
+// within reports whether |got − want| ≤ k standard errors se.
+func within(got, want, se, k float64) bool { return math.Abs(got-want) <= k*se }
+
+// TestPortfolioIndependentNormals: for independent prospects the
+// portfolio's mean is the sum of their means and its standard deviation the
+// root sum of their squares (variances of independent variables add), the
+// expected successes are the sum of the chances, and, for independent
+// success draws, P(no success) = Π(1 − chance) (binomial check at the run's
+// trials). The risked mean is Σ chance × mean (success independent of the
+// outcome). Tolerances are 5 standard errors at n trials.
+func TestPortfolioIndependentNormals(t *testing.T) {
+	t.Parallel()
+	const n = 200_000
+	p := &Portfolio{Title: "independent", Trials: n, Seed: 11,
+		Prospects: []Prospect{normalProspect(t, "a", 0.6), normalProspect(t, "b", 0.7)}}
+	res, err := EstimatePortfolio(p, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const power = 3
+	a, b := res.Prospects[0].Unrisked[power].Summary, res.Prospects[1].Unrisked[power].Summary
+	tot, risked := res.Unrisked[power].Summary, res.Risked[power].Summary
+	if math.Abs(tot.Mean/(a.Mean+b.Mean)-1) > 1e-12 {
+		t.Errorf("mean of the total %g, sum of the means %g", tot.Mean, a.Mean+b.Mean)
+	}
+	rss := math.Hypot(a.SD, b.SD)
+	if !within(tot.SD, rss, rss/math.Sqrt(2*n), 5) { // se of a normal sd: σ/√(2n)
+		t.Errorf("sd of the total %g, root sum of squares %g", tot.SD, rss)
+	}
+	wantRisked := 0.6*a.Mean + 0.7*b.Mean
+	if !within(risked.Mean, wantRisked, risked.SD/math.Sqrt(n), 5) {
+		t.Errorf("risked mean %g, Σ chance × mean %g", risked.Mean, wantRisked)
+	}
+	if got := res.Prospects[0].RiskedMean[power]; !within(got, 0.6*a.Mean, a.SD/math.Sqrt(n)+a.Mean*math.Sqrt(0.24/n), 5) {
+		t.Errorf("prospect a risked mean %g, want 0.6 × %g", got, a.Mean)
+	}
+	none := 0.4 * 0.3
+	if !within(res.ChanceNone, none, math.Sqrt(none*(1-none)/n), 5) {
+		t.Errorf("P(no success) = %g, want (1 − 0.6)(1 − 0.7) = %g", res.ChanceNone, none)
+	}
+	if math.Abs(res.ExpectedSuccesses-1.3) > 1e-12 || !(res.ChanceNoneCI.Lo < res.ChanceNone && res.ChanceNone < res.ChanceNoneCI.Hi) {
+		t.Errorf("expected successes %g, want 1.3; P(none) interval %+v", res.ExpectedSuccesses, res.ChanceNoneCI)
+	}
+	// Percentiles do not add: the sum of two P90s is lower than the P90 of
+	// the sum (for independent normals μ1+μ2 − 1.2816·(σ1+σ2) <
+	// μ1+μ2 − 1.2816·√(σ1²+σ2²); docs/references.md §8).
+	if !(res.SumP90[power] < tot.P90) || !(res.SumP10[power] > tot.P10) {
+		t.Errorf("sum of P90s %g vs P90 of the total %g; sum of P10s %g vs %g", res.SumP90[power], tot.P90, res.SumP10[power], tot.P10)
+	}
+}
+
+// TestPortfolioComonotone: prospects whose outcomes are (almost) fully rank
+// correlated add like comonotone variables, whose quantiles add: the
+// portfolio's P90 is the sum of the P90s (rank 0.999 moves it by
+// 1.2816·σ·(2 − √3.998) ≈ 6e-4·σ, far inside the intervals).
+func TestPortfolioComonotone(t *testing.T) {
+	t.Parallel()
+	p := &Portfolio{Title: "comonotone", Trials: 100_000, Seed: 5,
+		Prospects:    []Prospect{normalProspect(t, "a", 1), normalProspect(t, "b", 1)},
+		Correlations: []ProspectCorrelation{{Prospects: [2]string{"a", "b"}, Rank: 0.999}}}
+	res, err := EstimatePortfolio(p, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const power = 3
+	s := res.Unrisked[power].Summary
+	half := (s.P90CI.Hi - s.P90CI.Lo) / 2
+	if !within(s.P90, res.SumP90[power], half, 3) {
+		t.Errorf("P90 of the total %g, sum of P90s %g (interval half-width %g)", s.P90, res.SumP90[power], half)
+	}
+}
+
+// TestPortfolioSharedInput: a shared input takes the same draw in every
+// trial for the prospects that share it (seen in the kept trials), and
+// not for a prospect that does not.
+func TestPortfolioSharedInput(t *testing.T) {
+	t.Parallel()
+	p := &Portfolio{Title: "shared", Trials: 5000, Seed: 2,
+		Prospects: []Prospect{normalProspect(t, "a", 1), normalProspect(t, "b", 1), normalProspect(t, "c", 1)},
+		Shared:    []SharedInput{{Input: "recovery_factor", Prospects: []string{"a", "b"}}}}
+	res, err := EstimatePortfolio(p, Options{KeepSamples: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := func(name string) []float64 {
+		for j, n := range res.Samples.Names {
+			if n == name {
+				return res.Samples.Columns[j]
+			}
+		}
+		t.Fatalf("no sample column %s in %v", name, res.Samples.Names)
+		return nil
+	}
+	a, b, c := col("a/recovery_factor"), col("b/recovery_factor"), col("c/recovery_factor")
+	if !reflect.DeepEqual(a, b) {
+		t.Error("prospects a and b do not share the recovery factor draw")
+	}
+	if reflect.DeepEqual(a, c) {
+		t.Error("prospect c, which shares nothing, has a's draws")
+	}
+}
+
+// TestPortfolioWorkers: the same portfolio and seed give the same figures
+// whatever the number of workers.
+func TestPortfolioWorkers(t *testing.T) {
+	t.Parallel()
+	mk := func() *Portfolio {
+		return &Portfolio{Title: "workers", Trials: 300_000, Seed: 8, TargetMWe: 100,
+			Prospects: []Prospect{normalProspect(t, "a", 0.5), normalProspect(t, "b", 0.8), normalProspect(t, "c", 0.9)},
+			Shared:    []SharedInput{{Input: "recovery_factor", Prospects: []string{"b", "c"}}},
+			SuccessCorrelations: []ProspectCorrelation{{Prospects: [2]string{"a", "b"}, Rank: 0.5}}}
+	}
+	one, err := EstimatePortfolio(mk(), Options{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	three, err := EstimatePortfolio(mk(), Options{Workers: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(one, three) {
+		t.Error("results differ between 1 and 3 workers")
+	}
+}
+
+// TestPortfolioProblems checks the errors a portfolio can have.
+func TestPortfolioProblems(t *testing.T) {
+	t.Parallel()
+	cases := []struct {
+		name string
+		edit func(p *Portfolio)
+		want string
+	}{
+		{"chance above 1", func(p *Portfolio) { p.Prospects[0].Chance = 1.5 }, "must be a probability in [0, 1]"},
+		{"duplicate name", func(p *Portfolio) { p.Prospects[1].Name = "a" }, `the name "a" is used twice`},
+		{"unknown prospect", func(p *Portfolio) {
+			p.Correlations = []ProspectCorrelation{{Prospects: [2]string{"a", "z"}, Rank: 0.3}}
+		}, `"z" is not a prospect of the portfolio`},
+		{"shared and correlated", func(p *Portfolio) {
+			p.Shared = []SharedInput{{Input: "recovery_factor"}}
+			p.Correlations = []ProspectCorrelation{{Prospects: [2]string{"a", "b"}, Rank: 0.3}}
+		}, "would break the shared draw"},
+		{"shared fixed input", func(p *Portfolio) { p.Shared = []SharedInput{{Input: "porosity"}} }, "only sampled inputs are shared"},
+		{"factors disagree", func(p *Portfolio) {
+			p.Prospects[0].Factors = []ChanceFactor{{"temperature", 0.5}, {"permeability", 0.5}}
+		}, "is not the product 0.25"},
+		{"bad run", func(p *Portfolio) { p.Prospects[1].Run.Model.(*Reservoir).Thickness = Quantity{} }, `prospect "b": thickness_m: missing`},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p := &Portfolio{Title: c.name, Trials: 100,
+				Prospects: []Prospect{normalProspect(t, "a", 0.5), normalProspect(t, "b", 0.5)}}
+			c.edit(p)
+			err := p.Validate()
+			var es InputErrors
+			if !errors.As(err, &es) || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("err = %v, want one saying %q", err, c.want)
+			}
+		})
+	}
+}
