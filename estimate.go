@@ -136,7 +136,7 @@ func (r *run) startSketches() {
 func (r *run) result() *Result {
 	c, s := r.c, r.s
 	fluid, conv := c.run.Model.Settings()
-	res := &Result{Title: c.run.Title, Path: c.run.Path, Kind: c.run.Model.Kind(), Fluid: fluid, Conversion: conv,
+	res := &Result{Title: c.run.Title, Path: c.run.Path, SourceSHA256: c.run.SourceSHA256, Kind: c.run.Model.Kind(), Fluid: fluid, Conversion: conv,
 		Trials: r.ranTrials(), Seed: s.seed, Sampling: c.run.Sampling, Confidence: s.stat.Level(),
 		Streaming: s.streaming, Precision: s.Precision, Correlations: c.run.Correlations,
 		PerBatch: c.run.Sampling == sampler.LatinHypercube && s.streaming && s.trials > sampler.BatchSize}

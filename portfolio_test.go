@@ -135,8 +135,8 @@ func TestPortfolioWorkers(t *testing.T) {
 	t.Parallel()
 	mk := func() *Portfolio {
 		return &Portfolio{Title: "workers", Trials: 300_000, Seed: 8, TargetMWe: 100,
-			Prospects: []Prospect{normalProspect(t, "a", 0.5), normalProspect(t, "b", 0.8), normalProspect(t, "c", 0.9)},
-			Shared:    []SharedInput{{Input: "recovery_factor", Prospects: []string{"b", "c"}}},
+			Prospects:           []Prospect{normalProspect(t, "a", 0.5), normalProspect(t, "b", 0.8), normalProspect(t, "c", 0.9)},
+			Shared:              []SharedInput{{Input: "recovery_factor", Prospects: []string{"b", "c"}}},
 			SuccessCorrelations: []ProspectCorrelation{{Prospects: [2]string{"a", "b"}, Rank: 0.5}}}
 	}
 	one, err := EstimatePortfolio(mk(), Options{Workers: 1})

@@ -10,7 +10,9 @@ import (
 type Result struct {
 	Title string
 	Path  string
-	Kind  heatmodel.Kind
+	// SourceSHA256 is the Run's: the hex SHA-256 of its scenario file.
+	SourceSHA256 string
+	Kind         heatmodel.Kind
 	// Fluid and Conversion are the model's fluid property source and
 	// conversion route.
 	Fluid      heatmodel.FluidSource

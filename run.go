@@ -14,6 +14,10 @@ type Run struct {
 	// Path is where the run was read from (a scenario file), shown in
 	// reports; empty for a run built in Go.
 	Path string
+	// SourceSHA256 is the hex SHA-256 of the scenario file the run was
+	// read from, for the reproducibility record; empty for a run built in
+	// Go.
+	SourceSHA256 string
 	// Trials is the number of trials, 1 … MaxTrials; 0 means
 	// DefaultTrials.
 	Trials int

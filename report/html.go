@@ -48,6 +48,7 @@ type page struct {
 	Correlations            []string
 	Method                  string
 	Warnings                []string
+	Prov                    provenance
 }
 
 // chartSection holds the charts of one headline output; a chart that
@@ -80,6 +81,8 @@ func newPage(r *rockheat.Result) (*page, error) {
 		Inputs:     r.Inputs,
 		Method:     methodText(r),
 		Warnings:   r.Warnings,
+		Prov: newProvenance(r.Seed, r.Trials, samplingName(r.Sampling),
+			[]fileHash{{Path: r.Path, SHA256: r.SourceSHA256}}),
 	}
 
 	pg.Rows = figureRows(r, notDecline)
@@ -141,38 +144,13 @@ func inlineSVG(label string, draw func(w io.Writer) error) (template.HTML, error
 	return template.HTML(s), nil
 }
 
-var pageTemplate = template.Must(template.New("page").Parse(`<!DOCTYPE html>
+var pageTemplate = template.Must(template.New("page").Parse(styleHTML + provenanceHTML + `<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8">
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <title>{{.Title}} · rockheat</title>
-<style>
-:root { --ink: #242a30; --soft: #5c646c; --rule: #d9dde1; --band: #f4f6f7; --accent: #1d5b79; }
-body { margin: 0; color: var(--ink); background: #fff; font: 15px/1.45 "Liberation Sans", Arial, Helvetica, sans-serif; }
-main { max-width: 60rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
-h1 { font-size: 1.6rem; margin: 0 0 .25rem; }
-h2 { font-size: 1.2rem; margin: 2.2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid var(--accent); }
-h3 { font-size: 1rem; margin: 1.4rem 0 .4rem; }
-.run { color: var(--soft); margin: 0; }
-.caution { border: 2px solid #b8860b; background: #fff8e1; padding: .7rem 1rem; margin: 1.2rem 0; }
-.caution strong { color: #7a5600; }
-.warning { border-left: 4px solid #a83a1c; background: #fdf0ec; padding: .4rem .8rem; margin: .5rem 0; }
-table { border-collapse: collapse; margin: .4rem 0 .8rem; font-variant-numeric: tabular-nums; }
-th, td { padding: .25rem .6rem; border-bottom: 1px solid var(--rule); vertical-align: top; }
-th { text-align: left; background: var(--band); font-weight: 600; }
-td.n, th.n { text-align: right; white-space: nowrap; }
-tr.ci td { color: var(--soft); font-size: .82rem; border-bottom: 1px solid var(--rule); padding-top: 0; }
-tr.fig td { border-bottom: none; }
-.note { color: var(--soft); font-size: .9rem; margin: .3rem 0; }
-.convention { font-size: .92rem; }
-figure { margin: 1rem 0; }
-figure svg { max-width: 100%; height: auto; display: block; border: 1px solid var(--rule); }
-svg text { font-family: "Liberation Sans", Arial, Helvetica, sans-serif !important; }
-.bar { display: inline-block; height: .7rem; background: #4a9ca6; vertical-align: middle; }
-.barbox { display: inline-block; width: 8rem; background: var(--band); }
-code { font-size: .9em; }
-</style>
+{{template "style"}}
 </head>
 <body>
 <main>
@@ -234,7 +212,47 @@ code { font-size: .9em; }
 {{if .Warnings}}<h2>Warnings</h2>
 {{range .Warnings}}<p class="warning">{{.}}</p>
 {{end}}{{end}}
+{{template "provenance" .Prov}}
 </main>
 </body>
 </html>
 `))
+
+// styleHTML is the style sheet of rockheat's pages, for screen and for
+// print on A4 or Letter: no chart or table split over a page.
+const styleHTML = `{{define "style"}}<style>
+:root { --ink: #242a30; --soft: #5c646c; --rule: #d9dde1; --band: #f4f6f7; --accent: #1d5b79; }
+body { margin: 0; color: var(--ink); background: #fff; font: 15px/1.45 "Liberation Sans", Arial, Helvetica, sans-serif; }
+main { max-width: 60rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
+h1 { font-size: 1.6rem; margin: 0 0 .25rem; }
+h2 { font-size: 1.2rem; margin: 2.2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid var(--accent); }
+h3 { font-size: 1rem; margin: 1.4rem 0 .4rem; }
+.run { color: var(--soft); margin: 0; }
+.caution { border: 2px solid #b8860b; background: #fff8e1; padding: .7rem 1rem; margin: 1.2rem 0; }
+.caution strong { color: #7a5600; }
+.warning { border-left: 4px solid #a83a1c; background: #fdf0ec; padding: .4rem .8rem; margin: .5rem 0; }
+table { border-collapse: collapse; margin: .4rem 0 .8rem; font-variant-numeric: tabular-nums; }
+th, td { padding: .25rem .6rem; border-bottom: 1px solid var(--rule); vertical-align: top; }
+th { text-align: left; background: var(--band); font-weight: 600; }
+td.n, th.n { text-align: right; white-space: nowrap; }
+tr.ci td { color: var(--soft); font-size: .82rem; border-bottom: 1px solid var(--rule); padding-top: 0; }
+tr.fig td { border-bottom: none; }
+.note { color: var(--soft); font-size: .9rem; margin: .3rem 0; }
+.convention { font-size: .92rem; }
+figure { margin: 1rem 0; }
+figure svg { max-width: 100%; height: auto; display: block; border: 1px solid var(--rule); }
+svg text { font-family: "Liberation Sans", Arial, Helvetica, sans-serif !important; }
+.bar { display: inline-block; height: .7rem; background: #4a9ca6; vertical-align: middle; }
+.barbox { display: inline-block; width: 8rem; background: var(--band); }
+code { font-size: .9em; }
+table.prov th { width: 8rem; }
+code.hash { font-size: .78em; word-break: break-all; }
+@page { margin: 14mm 12mm; }
+@media print {
+  body { font-size: 10.5pt; }
+  main { max-width: none; padding: 0; }
+  figure, table, .caution, .warning { break-inside: avoid; page-break-inside: avoid; }
+  h2, h3 { break-after: avoid; page-break-after: avoid; }
+  figure svg { max-width: 100%; border: none; }
+}
+</style>{{end}}`

@@ -59,8 +59,8 @@ const maxTitleRunes = 70
 // prospect's title, shortened to maxTitleRunes, over the subject; the
 // subject alone when r has no title (as in the HTML page, which shows the
 // title in its own text).
-func chartTitle(r *rockheat.Result, subject string) string {
-	t := []rune(r.Title)
+func chartTitle(title, subject string) string {
+	t := []rune(title)
 	if len(t) == 0 {
 		return subject
 	}
@@ -195,7 +195,7 @@ func exceedanceChart(r *rockheat.Result, output string) (chart, error) {
 		}
 	}
 
-	p := newPlot(chartTitle(r, "Probability of exceeding: "+o.Spec.Doc))
+	p := newPlot(chartTitle(r.Title, "Probability of exceeding: "+o.Spec.Doc))
 	p.X.Label.Text = o.Spec.Doc + ", " + long
 	p.X.Tick.Marker = niceTicks{7}
 	p.Y.Label.Text = "probability of exceeding (%)"
@@ -228,7 +228,7 @@ func exceedanceChart(r *rockheat.Result, output string) (chart, error) {
 			color: meanColor, glyph: draw.BoxGlyph{}, full: true},
 	}})
 	foot := []string{"P90 is exceeded by 90% of trials (the low estimate), P10 by 10% (the high estimate)."}
-	return chart{p, 7 * vg.Inch, 4.6 * vg.Inch, footerHeight(len(foot), false), footer(r, foot, nil)}, nil
+	return chart{p, 7 * vg.Inch, 4.6 * vg.Inch, footerHeight(len(foot), false), footer(runNote(r), foot, nil)}, nil
 }
 
 // curvePoints returns the points of an exceedance curve: x = curve[k] /
@@ -352,8 +352,8 @@ type swatch struct {
 }
 
 // footer returns a function drawing, in the strip under a chart, the
-// legend entries, the caption lines, and the footnote with the run.
-func footer(r *rockheat.Result, caption []string, legend []swatch) func(c draw.Canvas) {
+// legend entries, the caption lines, and the footnote with the run, note.
+func footer(note string, caption []string, legend []swatch) func(c draw.Canvas) {
 	return func(c draw.Canvas) {
 		small := textStyle(8, softInk)
 		left := c.Min.X + vg.Points(12)
@@ -376,11 +376,11 @@ func footer(r *rockheat.Result, caption []string, legend []swatch) func(c draw.C
 			c.FillText(small, vg.Point{X: left, Y: y}, line)
 			y -= vg.Points(10)
 		}
-		note := textStyle(8, softInk)
-		note.YAlign = draw.YBottom
-		c.FillText(note, vg.Point{X: left, Y: c.Min.Y + vg.Points(5)}, chartFootnote)
-		note.XAlign = draw.XRight
-		c.FillText(note, vg.Point{X: c.Max.X - vg.Points(12), Y: c.Min.Y + vg.Points(5)}, runNote(r))
+		sty := textStyle(8, softInk)
+		sty.YAlign = draw.YBottom
+		c.FillText(sty, vg.Point{X: left, Y: c.Min.Y + vg.Points(5)}, chartFootnote)
+		sty.XAlign = draw.XRight
+		c.FillText(sty, vg.Point{X: c.Max.X - vg.Points(12), Y: c.Min.Y + vg.Points(5)}, note)
 	}
 }
 
@@ -496,7 +496,7 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 	bars = bars[:len(bars)-more]
 	n := len(bars)
 
-	p := newPlot(chartTitle(r, "What moves the "+o.Spec.Doc))
+	p := newPlot(chartTitle(r.Title, "What moves the "+o.Spec.Doc))
 	p.X.Label.Text = o.Spec.Doc + ", " + long
 	p.X.Tick.Marker = niceTicks{7}
 	names := make([]string, n)
@@ -525,7 +525,7 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 	}
 	legend := []swatch{{color: lowColor, text: "input low (its 10th percentile)"}, {color: highColor, text: "input high (its 90th percentile)"}}
 	height := 2.3*vg.Inch + vg.Length(n)*0.36*vg.Inch
-	return chart{p, 7 * vg.Inch, height, footerHeight(len(caption), true), footer(r, caption, legend)}, nil
+	return chart{p, 7 * vg.Inch, height, footerHeight(len(caption), true), footer(runNote(r), caption, legend)}, nil
 }
 
 // tornado draws the bars of a tornado chart; bars[0] is the top row.
@@ -612,7 +612,7 @@ func declineChart(r *rockheat.Result) (chart, error) {
 		p90[i], p50[i], p10[i] = plotter.XY{X: y, Y: s.P90}, plotter.XY{X: y, Y: s.P50}, plotter.XY{X: y, Y: s.P10}
 		top = math.Max(top, math.Max(s.P90, s.P10))
 	}
-	p := newPlot(chartTitle(r, "Thermal power decline"))
+	p := newPlot(chartTitle(r.Title, "Thermal power decline"))
 	p.X.Label.Text = "years from the start of production"
 	p.Y.Label.Text = "thermal power, " + unit
 	p.Y.Tick.Marker = niceTicks{6}
@@ -660,7 +660,7 @@ func declineChart(r *rockheat.Result) (chart, error) {
 	}
 	p.Add(ends)
 	caption := []string{"Band: from the P90 (exceeded by 90% of trials) to the P10 (exceeded by 10%) of the thermal power at each report year, " + unit + "."}
-	return chart{p, 7 * vg.Inch, 4.4 * vg.Inch, footerHeight(len(caption), false), footer(r, caption, nil)}, nil
+	return chart{p, 7 * vg.Inch, 4.4 * vg.Inch, footerHeight(len(caption), false), footer(runNote(r), caption, nil)}, nil
 }
 
 // declineOutputs returns the outputs of group rockheat.DeclineGroup, by year.

@@ -83,7 +83,9 @@ func figureRows(r *rockheat.Result, keep func(rockheat.OutputSpec) bool) []figur
 
 // notYearZero keeps every output but the thermal power at year 0, which
 // is the initial thermal power, shown once.
-func notYearZero(o rockheat.OutputSpec) bool { return !(o.Group == rockheat.DeclineGroup && o.Year == 0) }
+func notYearZero(o rockheat.OutputSpec) bool {
+	return !(o.Group == rockheat.DeclineGroup && o.Year == 0)
+}
 
 // notDecline keeps every output but the power at the report years.
 func notDecline(o rockheat.OutputSpec) bool { return o.Group != rockheat.DeclineGroup }

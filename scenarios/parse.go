@@ -1,6 +1,8 @@
 package scenarios
 
 import (
+	"crypto/sha256"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"regexp"
@@ -62,6 +64,8 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	s := &Scenario{Path: path, Source: src}
 	run := &s.Run
 	run.Path, run.Title = path, strings.TrimSpace(r.Title)
+	sum := sha256.Sum256(src)
+	run.SourceSHA256 = hex.EncodeToString(sum[:])
 	if run.Title == "" {
 		c.add("title", "missing; give the prospect a title, e.g. title = \"Example prospect\"")
 	}
