@@ -131,7 +131,7 @@ func runCommand() *cli.Command {
 		ArgsUsage:    "SCENARIO (a .toml file, or the name of a bundled example such as demo)",
 		Flags: []cli.Flag{
 			&cli.StringFlag{Name: "format", Value: "text", Usage: "output format: text, json, csv or html (a self-contained page with charts)"},
-			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file; - is standard output) instead of standard output"},
+			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file) instead of standard output; - means standard output"},
 			&cli.StringFlag{Name: "plots", Usage: "also write SVG charts (exceedance curves, tornado charts, hot-rock decline) into `DIR` (created if missing)"},
 			&cli.StringFlag{Name: "samples", Usage: "also write every trial's inputs and outputs to this CSV `FILE` (- is standard output)"},
 			&cli.IntFlag{Name: "trials", Usage: "number of trials (overrides [run] trials)"},
