@@ -253,8 +253,10 @@ func (s *Set) check(t *Target) error {
 			return fmt.Errorf("%s - and %s - both write to standard output; give one of them a file name", t.flag, u.flag)
 		case t.same(u.place):
 			return fmt.Errorf("%s and %s %s are the same file; give each output its own file", what, u.flag, u.spelled)
-		case t.stdout && u.same(s.stdoutFile), u.stdout && t.same(s.stdoutFile):
+		case u.stdout && t.same(s.stdoutFile):
 			return fmt.Errorf("%s and standard output (%s -) are the same file; give each output its own file", what, u.flag)
+		case t.stdout && u.same(s.stdoutFile):
+			return fmt.Errorf("%s %s and standard output (%s -) are the same file; give each output its own file", u.flag, u.spelled, t.flag)
 		}
 	}
 	for _, f := range s.folders {

@@ -70,6 +70,10 @@ func TestAdd(t *testing.T) {
 			[]addStep{{"--out", "-", false}, {"--samples", "o.txt", false}},
 			"--samples o.txt and standard output (--out -) are the same file; give each output its own file"},
 
+		{"file that standard output goes to, given first", []string{"file o.txt"}, nil, "o.txt",
+			[]addStep{{"--samples", "o.txt", false}, {"--out", "-", false}},
+			"--samples o.txt and standard output (--out -) are the same file; give each output its own file"},
+
 		// Outputs and a folder of charts.
 		{"chart name in the plots folder", nil, nil, "",
 			[]addStep{{"--plots", "plots", true}, {"--out", "plots/decline.svg", false}},
