@@ -4,10 +4,6 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
-	"errors"
-	"io"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 
@@ -160,36 +156,5 @@ func TestCSV(t *testing.T) {
 	}
 	if len(rows) != 1+len(r.Outputs) || rows[0][0] != "output" || rows[1][0] != "heat_in_place" || rows[1][1] != "J" {
 		t.Errorf("rows = %v", rows)
-	}
-}
-
-// TestWriteFileWhole: a failed write leaves nothing behind and keeps any
-// earlier file; a good one replaces it whole.
-func TestWriteFileWhole(t *testing.T) {
-	t.Parallel()
-	dir := t.TempDir()
-	path := filepath.Join(dir, "out.csv")
-	if err := os.WriteFile(path, []byte("old"), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	err := WriteFile(path, func(w io.Writer) error {
-		io.WriteString(w, "partial")
-		return errors.New("disk on fire")
-	})
-	if err == nil {
-		t.Fatal("no error")
-	}
-	if b, _ := os.ReadFile(path); string(b) != "old" {
-		t.Errorf("after a failed write the file holds %q", b)
-	}
-	if err := WriteFile(path, func(w io.Writer) error { _, err := io.WriteString(w, "new"); return err }); err != nil {
-		t.Fatal(err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "new" {
-		t.Errorf("file holds %q", b)
-	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 1 {
-		t.Errorf("%d files in the directory, want 1", len(entries))
 	}
 }

@@ -4,8 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strconv"
 	"strings"
 
@@ -14,6 +12,7 @@ import (
 	"rockheat"
 	"rockheat/heatmodel"
 	"rockheat/report"
+	"rockheat/report/outfile"
 	"rockheat/scenarios"
 )
 
@@ -133,9 +132,9 @@ func runCommand() *cli.Command {
 		ArgsUsage:    "SCENARIO (a .toml file, or the name of a bundled example such as demo)",
 		Flags: []cli.Flag{
 			&cli.StringFlag{Name: "format", Value: "text", Usage: "output format: text, json, csv or html (a self-contained page with charts)"},
-			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file) instead of standard output"},
-			&cli.StringFlag{Name: "plots", Usage: "also write SVG charts (exceedance curves, tornado charts, hot-rock decline) into `DIR`"},
-			&cli.StringFlag{Name: "samples", Usage: "also write every trial's inputs and outputs to this CSV `FILE`"},
+			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file) instead of standard output; - means standard output"},
+			&cli.StringFlag{Name: "plots", Usage: "also write SVG charts (exceedance curves, tornado charts, hot-rock decline) into `DIR` (created if missing)"},
+			&cli.StringFlag{Name: "samples", Usage: "also write every trial's inputs and outputs to this CSV `FILE` (- is standard output)"},
 			&cli.IntFlag{Name: "trials", Usage: "number of trials (overrides [run] trials)"},
 			&cli.StringFlag{Name: "seed", Usage: "random seed, a whole number ≥ 0 (overrides [run] seed)"},
 			&cli.IntFlag{Name: "workers", Usage: "goroutines to use (default: one per CPU); results do not depend on it"},
@@ -187,6 +186,11 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return err
 			}
+			outs, err := planOutputs(c, runInputs(c.Args().First()))
+			if err != nil {
+				return err
+			}
+			defer outs.close()
 			prog := newProgress(c.App.ErrWriter)
 			if prog != nil {
 				opt.Progress = prog.update
@@ -196,20 +200,7 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return flagError(err)
 			}
-			if path := c.String("samples"); path != "" {
-				if err := report.WriteFile(path, func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
-					return err
-				}
-			}
-			if dir := c.String("plots"); dir != "" {
-				if err := writePlots(dir, res); err != nil {
-					return err
-				}
-			}
-			if path := c.String("out"); path != "" {
-				return report.WriteFile(path, func(w io.Writer) error { return render(w, res) })
-			}
-			return render(c.App.Writer, res)
+			return outs.write(res, render)
 		},
 	}
 }
@@ -238,20 +229,18 @@ func flagError(err error) error {
 }
 
 // writePlots writes the charts of res into dir: the exceedance curve and
-// tornado chart of every output, and the decline of a hot-rock run.
-func writePlots(dir string, res *rockheat.Result) error {
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return fmt.Errorf("creating the plot directory: %w", err)
-	}
+// tornado chart of every output, and the decline of a hot-rock run. Their
+// names match chartPatterns.
+func writePlots(dir *outfile.Folder, res *rockheat.Result) error {
 	for _, o := range res.Outputs {
 		name := o.Spec.Name
-		if err := report.WriteFile(filepath.Join(dir, "exceedance-"+name+".svg"), func(w io.Writer) error {
+		if err := writeChart(dir, "exceedance-"+name+".svg", func(w io.Writer) error {
 			return report.ExceedanceSVG(w, res, name)
 		}); err != nil {
 			return err
 		}
 		if len(res.Sensitivity) > 0 {
-			if err := report.WriteFile(filepath.Join(dir, "tornado-"+name+".svg"), func(w io.Writer) error {
+			if err := writeChart(dir, "tornado-"+name+".svg", func(w io.Writer) error {
 				return report.TornadoSVG(w, res, name)
 			}); err != nil {
 				return err
@@ -259,7 +248,7 @@ func writePlots(dir string, res *rockheat.Result) error {
 		}
 	}
 	if res.Kind == heatmodel.KindHotRock {
-		return report.WriteFile(filepath.Join(dir, "decline.svg"), func(w io.Writer) error { return report.DeclineSVG(w, res) })
+		return writeChart(dir, "decline.svg", func(w io.Writer) error { return report.DeclineSVG(w, res) })
 	}
 	return nil
 }

@@ -102,7 +102,7 @@ func TestExitCodes(t *testing.T) {
 		{"validate ../../testdata/bad-typo.toml", 2},
 		{"run ../../testdata/bad-syntax.toml", 2},
 		{"run demo --trials -5", 2},
-		{"run demo --samples /nonexistent-dir/x.csv --trials 100", 1},
+		{"run demo --samples /nonexistent-dir/x.csv --trials 100", 2}, // found before the run
 		{"run ../../testdata/nonesuch.toml", 2},
 		{"run demo --trials 20000000000", 2},
 		{"run demo --trials 3000000 --samples x.csv", 2},
