@@ -86,6 +86,11 @@ func LoadPortfolio(arg string) (*PortfolioFile, error) {
 	return ParsePortfolio(arg, filepath.Dir(arg), src)
 }
 
+// PortfolioText returns the text of the bundled portfolio name.
+func PortfolioText(name string) ([]byte, error) {
+	return portfoliosFS.ReadFile("portfolios/" + name + ".toml")
+}
+
 // BundledPortfolios returns the names of the bundled portfolios.
 func BundledPortfolios() []string {
 	entries, _ := portfoliosFS.ReadDir("portfolios")

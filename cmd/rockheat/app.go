@@ -10,9 +10,6 @@ import (
 	"github.com/urfave/cli/v2"
 
 	"rockheat"
-	"rockheat/heatmodel"
-	"rockheat/report"
-	"rockheat/report/outfile"
 	"rockheat/scenarios"
 )
 
@@ -54,10 +51,10 @@ func run(stdout, stderr io.Writer, args []string) error {
 		OnUsageError: func(c *cli.Context, err error, isSubcommand bool) error {
 			return usageError{err}
 		},
-		Commands: []*cli.Command{runCommand(), validateCommand(), examplesCommand()},
+		Commands: []*cli.Command{runCommand(), portfolioCommand(), validateCommand(), examplesCommand()},
 		Action: func(c *cli.Context) error {
 			if c.NArg() > 0 {
-				return usagef("unknown command %q; the commands are run, validate and examples (see rockheat --help)", c.Args().First())
+				return usagef("unknown command %q; the commands are run, portfolio, validate and examples (see rockheat --help)", c.Args().First())
 			}
 			return cli.ShowAppHelp(c)
 		},
@@ -124,135 +121,6 @@ func commandUsageError(c *cli.Context, err error, _ bool) error {
 	return usagef("%v; see rockheat %s --help", err, c.Command.Name)
 }
 
-func runCommand() *cli.Command {
-	return &cli.Command{
-		Name:         "run",
-		OnUsageError: commandUsageError,
-		Usage:        "run a scenario and print its P90/P50/P10 summary",
-		ArgsUsage:    "SCENARIO (a .toml file, or the name of a bundled example such as demo)",
-		Flags: []cli.Flag{
-			&cli.StringFlag{Name: "format", Value: "text", Usage: "output format: text, json, csv or html (a self-contained page with charts)"},
-			&cli.StringFlag{Name: "out", Usage: "write the report to `FILE` (whole, via a temporary file) instead of standard output; - means standard output"},
-			&cli.StringFlag{Name: "plots", Usage: "also write SVG charts (exceedance curves, tornado charts, hot-rock decline) into `DIR` (created if missing)"},
-			&cli.StringFlag{Name: "samples", Usage: "also write every trial's inputs and outputs to this CSV `FILE` (- is standard output)"},
-			&cli.IntFlag{Name: "trials", Usage: "number of trials (overrides [run] trials)"},
-			&cli.StringFlag{Name: "seed", Usage: "random seed, a whole number ≥ 0 (overrides [run] seed)"},
-			&cli.IntFlag{Name: "workers", Usage: "goroutines to use (default: one per CPU); results do not depend on it"},
-			&cli.StringFlag{Name: "precision", Usage: "run until every P90/P50/P10 is known to this relative `FRACTION` (95% interval half-width), e.g. 0.5% or 0.005"},
-			&cli.IntFlag{Name: "max-trials", Usage: "trial cap for --precision (default 100000000)"},
-		},
-		Action: func(c *cli.Context) error {
-			if c.NArg() != 1 {
-				return usagef("run takes one scenario, got %d; e.g. rockheat run demo", c.NArg())
-			}
-			format := c.String("format")
-			render, ok := map[string]func(io.Writer, *rockheat.Result) error{
-				"text": report.Text, "json": report.JSON, "csv": report.CSV, "html": report.HTML,
-			}[format]
-			if !ok {
-				return usagef("--format %q is not text, json, csv or html", format)
-			}
-			opt := rockheat.Options{Workers: c.Int("workers"), KeepSamples: c.String("samples") != ""}
-			if c.IsSet("trials") {
-				if c.Int("trials") <= 0 {
-					return usagef("--trials %d must be a positive number", c.Int("trials"))
-				}
-				opt.Trials = c.Int("trials")
-			}
-			if c.IsSet("workers") && c.Int("workers") <= 0 {
-				return usagef("--workers %d must be at least 1", c.Int("workers"))
-			}
-			if c.IsSet("seed") {
-				seed, err := strconv.ParseUint(strings.TrimSpace(c.String("seed")), 10, 64)
-				if err != nil {
-					return usagef("--seed %q must be a whole number ≥ 0", c.String("seed"))
-				}
-				opt.Seed = &seed
-			}
-			if c.IsSet("precision") {
-				p, err := parsePrecision(c.String("precision"))
-				if err != nil {
-					return err
-				}
-				opt.Precision = p
-			}
-			if c.IsSet("max-trials") {
-				if c.Int("max-trials") <= 0 || !c.IsSet("precision") {
-					return usagef("--max-trials must be a positive number and goes with --precision")
-				}
-				opt.MaxTrials = c.Int("max-trials")
-			}
-			s, err := load(c.Args().First())
-			if err != nil {
-				return err
-			}
-			outs, err := planOutputs(c, runInputs(c.Args().First()))
-			if err != nil {
-				return err
-			}
-			defer outs.close()
-			prog := newProgress(c.App.ErrWriter)
-			if prog != nil {
-				opt.Progress = prog.update
-			}
-			res, err := rockheat.Estimate(&s.Run, opt)
-			prog.clear()
-			if err != nil {
-				return flagError(err)
-			}
-			return outs.write(res, render)
-		},
-	}
-}
-
-// optionFlags names the flag of each rockheat.Options field.
-var optionFlags = map[string]string{"Trials": "--trials", "MaxTrials": "--max-trials", "KeepSamples": "--samples",
-	"Precision": "--precision", "Workers": "--workers", "Seed": "--seed"}
-
-// flagError words an option error of the library in the command's flags,
-// as a usage error; other errors pass through.
-func flagError(err error) error {
-	var oe *rockheat.OptionError
-	if !errors.As(err, &oe) {
-		return err
-	}
-	var flags []string
-	for _, o := range oe.Options {
-		if f, ok := optionFlags[o]; ok {
-			flags = append(flags, f)
-		}
-	}
-	if len(flags) == 0 {
-		return usageError{errors.New(oe.Msg)}
-	}
-	return usagef("%s: %s", strings.Join(flags, " with "), oe.Msg)
-}
-
-// writePlots writes the charts of res into dir: the exceedance curve and
-// tornado chart of every output, and the decline of a hot-rock run. Their
-// names match chartPatterns.
-func writePlots(dir *outfile.Folder, res *rockheat.Result) error {
-	for _, o := range res.Outputs {
-		name := o.Spec.Name
-		if err := writeChart(dir, "exceedance-"+name+".svg", func(w io.Writer) error {
-			return report.ExceedanceSVG(w, res, name)
-		}); err != nil {
-			return err
-		}
-		if len(res.Sensitivity) > 0 {
-			if err := writeChart(dir, "tornado-"+name+".svg", func(w io.Writer) error {
-				return report.TornadoSVG(w, res, name)
-			}); err != nil {
-				return err
-			}
-		}
-	}
-	if res.Kind == heatmodel.KindHotRock {
-		return writeChart(dir, "decline.svg", func(w io.Writer) error { return report.DeclineSVG(w, res) })
-	}
-	return nil
-}
-
 // load reads a scenario; a file that cannot be read is a usage error.
 func load(arg string) (*scenarios.Scenario, error) {
 	s, err := scenarios.Load(arg)
@@ -261,69 +129,4 @@ func load(arg string) (*scenarios.Scenario, error) {
 		return nil, usageError{fmt.Errorf("%w (give a scenario file, or the name of a bundled example: rockheat examples lists them)", err)}
 	}
 	return s, err
-}
-
-func validateCommand() *cli.Command {
-	return &cli.Command{
-		Name:         "validate",
-		OnUsageError: commandUsageError,
-		Usage:        "check scenario files and report every problem, without running",
-		ArgsUsage:    "SCENARIO...",
-		Action: func(c *cli.Context) error {
-			if c.NArg() == 0 {
-				return usagef("validate takes one or more scenario files, e.g. rockheat validate my-prospect.toml")
-			}
-			var all scenarios.Problems
-			var errs []error
-			for _, arg := range c.Args().Slice() {
-				s, err := load(arg)
-				var ps scenarios.Problems
-				switch {
-				case errors.As(err, &ps):
-					all = append(all, ps...)
-				case err != nil:
-					errs = append(errs, err)
-				default:
-					fmt.Fprintf(c.App.Writer, "%s: ok (%s, %d inputs, %d trials)\n", s.Path, s.Run.Model.Kind(), s.InputCount(), s.Run.Trials)
-					for _, w := range s.Warnings {
-						fmt.Fprintf(c.App.Writer, "  warning: %v\n", w)
-					}
-				}
-			}
-			if len(errs) > 0 {
-				return errors.Join(errs...)
-			}
-			if len(all) > 0 {
-				return fmt.Errorf("%d problem(s):\n%w", len(all), all)
-			}
-			return nil
-		},
-	}
-}
-
-func examplesCommand() *cli.Command {
-	return &cli.Command{
-		Name:         "examples",
-		OnUsageError: commandUsageError,
-		Usage:        "list the bundled example scenarios, or print one as a template",
-		ArgsUsage:    "[NAME]",
-		Action: func(c *cli.Context) error {
-			switch c.NArg() {
-			case 0:
-				for _, ex := range scenarios.Examples() {
-					fmt.Fprintf(c.App.Writer, "%-16s %s\n", ex.Name, ex.Title)
-				}
-				fmt.Fprintln(c.App.Writer, "\nrockheat examples NAME > my-prospect.toml   copies one to edit; rockheat run NAME runs it.")
-				return nil
-			case 1:
-				ex, err := scenarios.LookupExample(c.Args().First())
-				if err != nil {
-					return usageError{err}
-				}
-				_, err = c.App.Writer.Write(ex.Text)
-				return err
-			}
-			return usagef("examples takes at most one name")
-		},
-	}
 }

@@ -41,6 +41,8 @@ func TestGolden(t *testing.T) {
 		{"examples-list", "examples"},
 		{"examples-unknown", "examples nonesuch"},
 		{"run-one-trial-text", "run ../../testdata/small.toml --trials 1"},
+		{"portfolio-text", "portfolio licence-demo --trials 20000 --target 100"},
+		{"portfolio-json", "portfolio licence-demo --trials 5000 --format json"},
 		{"run-one-trial-csv", "run ../../testdata/small.toml --trials 1 --format csv"},
 	}
 	for _, c := range cases {

@@ -16,7 +16,7 @@ import (
 
 // chartPatterns match the names writePlots gives its charts; no other
 // output may have one of them in the --plots folder.
-var chartPatterns = []string{"exceedance-*.svg", "tornado-*.svg", "decline.svg"}
+var chartPatterns = []string{"exceedance-*.svg", "tornado-*.svg", "decline.svg", "portfolio-*.svg"}
 
 // outputs are the files and standard output a run writes, checked before
 // the run starts and written all or nothing after it.
@@ -68,26 +68,29 @@ func planOutputs(c *cli.Context, inputs []outfile.Input) (*outputs, error) {
 
 // write writes every output of res, all or nothing.
 func (o *outputs) write(res *rockheat.Result, render func(io.Writer, *rockheat.Result) error) error {
-	err := o.writeEach(res, render)
-	if err == nil {
-		return o.set.Commit()
-	}
-	o.set.Abort()
-	return err
+	return o.commit(func() error {
+		if o.samples != nil {
+			if err := o.samples.Write(func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
+				return err
+			}
+		}
+		if o.plots != nil {
+			if err := writePlots(o.plots, res); err != nil {
+				return err
+			}
+		}
+		return o.report.Write(func(w io.Writer) error { return render(w, res) })
+	})
 }
 
-func (o *outputs) writeEach(res *rockheat.Result, render func(io.Writer, *rockheat.Result) error) error {
-	if o.samples != nil {
-		if err := o.samples.Write(func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
-			return err
-		}
+// commit runs each, which writes the outputs, and puts them in place if
+// it succeeds, or takes them all back if not.
+func (o *outputs) commit(each func() error) error {
+	if err := each(); err != nil {
+		o.set.Abort()
+		return err
 	}
-	if o.plots != nil {
-		if err := writePlots(o.plots, res); err != nil {
-			return err
-		}
-	}
-	return o.report.Write(func(w io.Writer) error { return render(w, res) })
+	return o.set.Commit()
 }
 
 // close takes back anything written but not committed, and ends the
