@@ -4,12 +4,15 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 
 	"github.com/urfave/cli/v2"
 
 	"rockheat"
+	"rockheat/report"
 	"rockheat/scenarios"
 )
 
@@ -44,6 +47,7 @@ func run(stdout, stderr io.Writer, args []string) error {
 	app := &cli.App{
 		Name:      "rockheat",
 		Usage:     "probabilistic heat-in-place and power estimates for geothermal prospects",
+		Version:   versionText(),
 		Writer:    stdout,
 		ErrWriter: stderr,
 		// Errors are printed once, by main, with their exit code.
@@ -59,7 +63,21 @@ func run(stdout, stderr io.Writer, args []string) error {
 			return cli.ShowAppHelp(c)
 		},
 	}
-	return app.Run(flagsFirst(args))
+	args, err := flagsFirst(args)
+	if err != nil {
+		return err
+	}
+	return app.Run(args)
+}
+
+// versionText is the version --version prints: the module version and the
+// VCS revision of the build.
+func versionText() string {
+	v, rev := report.Version()
+	if rev == "" {
+		return v + " (no VCS revision recorded; build with -buildvcs=true)"
+	}
+	return v + " (revision " + rev + ")"
 }
 
 // flagsFirst moves the flags of a command in front of its arguments, so
@@ -67,9 +85,9 @@ func run(stdout, stderr io.Writer, args []string) error {
 // stops reading flags at the first argument). Every flag of rockheat's
 // commands takes a value, given as "--flag value" or "--flag=value";
 // "--" ends the flags.
-func flagsFirst(args []string) []string {
+func flagsFirst(args []string) ([]string, error) {
 	if len(args) < 3 {
-		return args
+		return args, nil
 	}
 	out := append([]string{}, args[:2]...)
 	var flags, rest []string
@@ -79,19 +97,37 @@ func flagsFirst(args []string) []string {
 		case a == "--":
 			rest = append(rest, args[i:]...)
 			i = len(args)
-		case a == "-h" || a == "--help" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
+		case a == "-h" || a == "--help":
+			// Help for the command, whatever else is given.
+			return append(out, "--help"), nil
+		case strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
 			flags = append(flags, a)
 		case strings.HasPrefix(a, "-") && len(a) > 1 && !isNumber(a):
-			flags = append(flags, a)
-			if i+1 < len(args) {
-				flags = append(flags, args[i+1])
-				i++
+			if i+1 == len(args) || strings.HasPrefix(args[i+1], "--") {
+				return nil, usagef("%s needs a value, e.g. %s; see rockheat %s --help", dashes(a), flagExample(a), args[1])
 			}
+			flags = append(flags, a, args[i+1])
+			i++
 		default:
 			rest = append(rest, a)
 		}
 	}
-	return append(append(out, flags...), rest...)
+	return append(append(out, flags...), rest...), nil
+}
+
+// dashes writes a flag with two dashes, as the help does.
+func dashes(flag string) string { return "--" + strings.TrimLeft(flag, "-") }
+
+// flagExample is an example of flag with a value.
+func flagExample(flag string) string {
+	ex := map[string]string{"trials": "100000", "seed": "12345", "workers": "2", "format": "json", "out": "report.html",
+		"plots": "charts", "samples": "trials.csv", "precision": "0.5%", "max-trials": "10000000", "target": "120",
+		"tolerance": "stat", "junit": "report.xml"}
+	name := strings.TrimLeft(flag, "-")
+	if v, ok := ex[name]; ok {
+		return "--" + name + " " + v
+	}
+	return "--" + name + " VALUE"
 }
 
 // parsePrecision reads a relative precision given as a percentage
@@ -118,8 +154,19 @@ func isNumber(s string) bool {
 // commandUsageError turns a flag error of a command into a usage error
 // (exit status 2) with a pointer to the help.
 func commandUsageError(c *cli.Context, err error, _ bool) error {
+	if m := invalidValueRE.FindStringSubmatch(err.Error()); m != nil {
+		what := "a whole number"
+		for _, f := range c.Command.Flags {
+			if _, ok := f.(*cli.StringFlag); ok && slices.Contains(f.Names(), m[2]) {
+				what = "a value"
+			}
+		}
+		return usagef("--%s %q must be %s, e.g. %s; see rockheat %s --help", m[2], m[1], what, flagExample(m[2]), c.Command.Name)
+	}
 	return usagef("%v; see rockheat %s --help", err, c.Command.Name)
 }
+
+var invalidValueRE = regexp.MustCompile(`invalid value "([^"]*)" for flag -+([a-z-]+)`)
 
 // load reads a scenario; a file that cannot be read is a usage error.
 func load(arg string) (*scenarios.Scenario, error) {
