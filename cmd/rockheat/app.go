@@ -44,7 +44,16 @@ func exitCode(err error) int {
 // run builds the command line app on the given writers and runs it with
 // args (args[0] is the program name).
 func run(stdout, stderr io.Writer, args []string) error {
-	app := &cli.App{
+	args, err := flagsFirst(args)
+	if err != nil {
+		return err
+	}
+	return newApp(stdout, stderr).Run(args)
+}
+
+// newApp returns the command line app, writing to stdout and stderr.
+func newApp(stdout, stderr io.Writer) *cli.App {
+	return &cli.App{
 		Name:      "rockheat",
 		Usage:     "probabilistic heat-in-place and power estimates for geothermal prospects",
 		Version:   versionText(),
@@ -63,11 +72,6 @@ func run(stdout, stderr io.Writer, args []string) error {
 			return cli.ShowAppHelp(c)
 		},
 	}
-	args, err := flagsFirst(args)
-	if err != nil {
-		return err
-	}
-	return app.Run(args)
 }
 
 // versionText is the version --version prints: the module version and the

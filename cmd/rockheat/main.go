@@ -4,12 +4,19 @@
 //
 // Usage:
 //
-//	rockheat run SCENARIO [--format text|json|csv] [--samples FILE] [--trials N] [--seed S] [--workers W]
+//	rockheat run SCENARIO [--format text|json|csv|html] [--out FILE] [--plots DIR] [--samples FILE]
+//	                      [--trials N] [--seed S] [--workers W] [--precision FRACTION] [--max-trials N]
+//	rockheat portfolio PORTFOLIO [--target MWE] [--format text|json|csv|html] [--out FILE] [--plots DIR]
+//	                      [--samples FILE] [--trials N] [--seed S] [--workers W]
 //	rockheat validate SCENARIO...
 //	rockheat examples [NAME]
+//	rockheat help [COMMAND]
+//	rockheat --version
 //
-// SCENARIO is a TOML file or the name of a bundled example. Exit status is
-// 0 on success, 1 when a run fails, 2 for bad usage or a bad scenario.
+// SCENARIO is a TOML file or the name of a bundled example; PORTFOLIO a
+// portfolio file or the name of a bundled portfolio. - as an output file
+// means standard output. Exit status is 0 on success, 1 when a run fails,
+// 2 for bad usage or a bad scenario, 130 or 143 when interrupted.
 package main
 
 import (
