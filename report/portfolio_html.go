@@ -52,7 +52,7 @@ func newPortfolioPage(r *rockheat.PortfolioResult) *portfolioPage {
 		Run:     fmt.Sprintf("%d prospects; %d trials (%s), seed %d", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed),
 		Caution: Caution, Convention: Convention, NonAdditive: NonAdditive, Links: portfolioLinks(r), Warnings: r.Warnings}
 	var files []fileHash
-	heatUnitName, _, heatScale := portfolioUnit(r, r.Unrisked[0])
+	_, heatUnitName, heatScale := portfolioUnit(r, r.Unrisked[0])
 	for _, p := range r.Prospects {
 		s := p.Unrisked[3].Summary
 		row := prospectRow{Name: p.Name, Scenario: p.Path, Chance: pct(p.Chance), Share: pct(p.Share),

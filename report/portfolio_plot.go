@@ -68,7 +68,7 @@ func portfolioExceedanceChart(r *rockheat.PortfolioResult) (chart, error) {
 		}
 		p.Add(l)
 		legend = append(legend, swatch{l.Color, c.name})
-		lo, hi = math.Min(lo, pts[len(pts)-1].X), math.Max(hi, pts[0].X)
+		lo, hi = math.Min(lo, pts[0].X), math.Max(hi, pts[len(pts)-1].X) // the curve runs from the minimum to the maximum
 	}
 	var marks []mark
 	caption := []string{"Totals add the prospects trial by trial; a risked total counts a failed prospect as zero."}
