@@ -7,6 +7,7 @@ import (
 
 	"rockheat"
 	"rockheat/heatmodel/water"
+	"rockheat/scenarios"
 )
 
 func estimateFixed(t *testing.T, src string) *rockheat.Result {
@@ -214,4 +215,56 @@ life_years = 25
 			t.Errorf("%s: one gradient %g / %g, layers %g / %g", one.Outputs[j].Spec.Name, a.Mean, a.P50, b.Mean, b.P50)
 		}
 	}
+}
+
+// TestPowerDensity checks the analog kind, MWe = A × power density
+// (docs/references.md §3), and the reservoir's implied power density
+// Pe/A, against hand values: 7.7 km² at 12 MWe/km² is 92.4 MWe; the demo
+// scenario's figures divide exactly (the area cancels).
+func TestPowerDensity(t *testing.T) {
+	t.Parallel()
+	res, err := rockheat.Estimate(&mustParse(t, `
+title = "Analog (invented)"
+[model]
+kind = "power-density"
+[inputs]
+area_km2 = 7.7
+power_density_mwe_km2 = 12
+`).Run, rockheat.Options{Trials: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := res.Outputs[0].Summary.P50; math.Abs(got-92.4) > 1e-12 {
+		t.Errorf("power-density kind: %g MWe, want 92.4", got)
+	}
+	src := strings.Replace(strings.Replace(demoText(t), `area_km2 = { dist = "triangular", min = 3, mode = 6, max = 14 }`, "area_km2 = 5", 1), "[run]", "[run]\n", 1)
+	res, err = rockheat.Estimate(&mustParse(t, src).Run, rockheat.Options{Trials: 2000, KeepSamples: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := res.Samples
+	var pe, pd []float64
+	for j, name := range s.Names {
+		switch name {
+		case "electric_power":
+			pe = s.Columns[j]
+		case "power_density":
+			pd = s.Columns[j]
+		}
+	}
+	for i := range pe {
+		if math.Abs(pd[i]*5/pe[i]-1) > 1e-12 {
+			t.Fatalf("trial %d: power density %g MWe/km² × 5 km² ≠ %g MWe", i, pd[i], pe[i])
+		}
+	}
+}
+
+// demoText returns the bundled demo scenario's text.
+func demoText(t *testing.T) string {
+	t.Helper()
+	ex, err := scenarios.LookupExample("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(ex.Text)
 }

@@ -104,6 +104,8 @@ var (
 	reservoirRecoverable = uses(reservoirHeat, []string{"recovery_factor"})
 	reservoirThermal     = uses(reservoirRecoverable, []string{"life"})
 	reservoirElectric    = uses(reservoirThermal, []string{"conversion_efficiency", "utilization_efficiency", "capacity_factor"})
+	// The power density Pe/A does not depend on the area, which cancels.
+	reservoirDensity = reservoirElectric[1:]
 )
 
 func (*Reservoir) outputs() []OutputSpec {
@@ -112,6 +114,7 @@ func (*Reservoir) outputs() []OutputSpec {
 		{Name: "recoverable_heat", Unit: "J", Doc: "recoverable heat", Scale: 1, DependsOn: reservoirRecoverable},
 		{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega, DependsOn: reservoirThermal},
 		{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega, DependsOn: reservoirElectric},
+		{Name: "power_density", Unit: "MWe/km²", Doc: "implied power density", Scale: 1, DependsOn: reservoirDensity},
 	}
 }
 
@@ -216,7 +219,7 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 		r.ConversionEfficiency = eff
 	}
 	return r.Evaluate(n, heatmodel.ReservoirOutputs{
-		HeatInPlace: out[0], RecoverableHeat: out[1], ThermalPower: out[2], ElectricPower: out[3],
+		HeatInPlace: out[0], RecoverableHeat: out[1], ThermalPower: out[2], ElectricPower: out[3], PowerDensity: out[4],
 	}), nil
 }
 

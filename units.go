@@ -58,6 +58,7 @@ var (
 	KelvinPerMetre  = Unit{"K/m", "k_per_m", DimGradient, 1, 0}
 	FlowPerKm2      = Unit{"m³/s per km²", "m3_s_km2", DimFlowPerArea, 1 / km2, 0}
 	MetrePerSecond  = Unit{"m³/s per m²", "m_s", DimFlowPerArea, 1, 0}
+	MWePerKm2       = Unit{"MWe/km²", "mwe_km2", DimPowerPerArea, 1, 0} // 1 MW per km² is 1 W/m²
 )
 
 // ToSI returns v in SI units.

@@ -14,10 +14,13 @@ const (
 	// conductive rock column, mined by a circulated water flow (type
 	// HotRock).
 	KindHotRock
+	// KindPowerDensity is the analog method: electric capacity as area
+	// times the power density of producing fields (PowerDensityMWe).
+	KindPowerDensity
 )
 
 // Kinds lists every model kind, in the order documentation lists them.
-var Kinds = []Kind{KindReservoir, KindHotRock}
+var Kinds = []Kind{KindReservoir, KindHotRock, KindPowerDensity}
 
 // String returns the kind's name in scenario files and reports:
 // "reservoir" or "hot-rock".
@@ -27,6 +30,8 @@ func (k Kind) String() string {
 		return "reservoir"
 	case KindHotRock:
 		return "hot-rock"
+	case KindPowerDensity:
+		return "power-density"
 	}
 	return fmt.Sprintf("Kind(%d)", int(k))
 }

@@ -27,6 +27,9 @@ type ReservoirOutputs struct {
 	RecoverableHeat []float64 // J
 	ThermalPower    []float64 // W, mean thermal power over the life
 	ElectricPower   []float64 // W, electric capacity
+	// PowerDensity, if not nil, gets the implied power density, W/m²
+	// (numerically MWe/km²): ElectricPower / Area.
+	PowerDensity []float64
 }
 
 // Evaluate computes the n trials of r into out, and returns the number of
@@ -39,6 +42,9 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 	for i := 0; i < n; i++ {
 		if r.ReservoirTemp.At(i) <= r.ReferenceTemp.At(i) {
 			out.HeatInPlace[i], out.RecoverableHeat[i], out.ThermalPower[i], out.ElectricPower[i] = 0, 0, 0, 0
+			if out.PowerDensity != nil {
+				out.PowerDensity[i] = 0
+			}
 			zeroHeat++
 			continue
 		}
@@ -52,6 +58,9 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 		out.RecoverableHeat[i] = qr
 		out.ThermalPower[i] = qr / life
 		out.ElectricPower[i] = r.ConversionEfficiency.At(i) * qr / (r.CapacityFactor.At(i) * life)
+		if out.PowerDensity != nil {
+			out.PowerDensity[i] = out.ElectricPower[i] / r.Area.At(i)
+		}
 	}
 	return zeroHeat
 }
@@ -79,3 +88,9 @@ func (b Block) HeatInPlace() float64 {
 	}
 	return b.Area * b.Thickness * ((1-b.Porosity)*b.RockDensity*b.RockHeatCapacity + b.Porosity*b.FluidDensity*b.FluidHeatCapacity) * dT
 }
+
+// PowerDensityMWe returns the electric capacity, W, of an area, m², at a
+// power density, W/m² (numerically MWe/km²): the analog method that sets a
+// prospect beside producing fields (Wilmarth & Stimac 2014,
+// docs/references.md §3).
+func PowerDensityMWe(area, density float64) float64 { return area * density }

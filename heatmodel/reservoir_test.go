@@ -71,7 +71,8 @@ func TestReservoirHandCalculation(t *testing.T) {
 }
 
 func newOutputs(n int) ReservoirOutputs {
-	return ReservoirOutputs{make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)}
+	return ReservoirOutputs{HeatInPlace: make([]float64, n), RecoverableHeat: make([]float64, n), ThermalPower: make([]float64, n),
+		ElectricPower: make([]float64, n), PowerDensity: make([]float64, n)}
 }
 
 // TestReservoirZeroHeat checks that trials at or below the reference

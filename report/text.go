@@ -57,9 +57,13 @@ func Text(w io.Writer, r *rockheat.Result) error {
 }
 
 // runNotes are the sentences that qualify a run's figures: zero-heat
-// trials, the percentile method, the stratification and the precision.
+// trials, the power-density cross-check, the percentile method, the
+// stratification and the precision.
 func runNotes(r *rockheat.Result) []string {
 	notes := []string{zeroHeatNote(r)}
+	if _, err := findOutput(r, "power_density"); err == nil {
+		notes = append(notes, PowerDensityNote)
+	}
 	if r.Streaming {
 		notes = append(notes, fmt.Sprintf("Percentiles come from a streaming quantile sketch, within %.2g%% (relative) of the exact order statistics.", 100*r.SketchRelErr))
 	}
@@ -75,6 +79,12 @@ func runNotes(r *rockheat.Result) []string {
 	}
 	return notes
 }
+
+// PowerDensityNote sets a reservoir's implied power density beside those
+// of producing fields.
+const PowerDensityNote = "Implied power density: electric capacity per km² of reservoir area. Producing fields above 200 °C " +
+	"have a median of 12.0 MWe/km² (mean 16.2, standard deviation 9.9; Wilmarth & Stimac 2014, 53 fields), rising by about " +
+	"2 MWe/km² per 10 °C; a figure far outside that range deserves a second look at the area, recovery or conversion inputs."
 
 // zeroHeatNote says how many trials held no heat, and why a trial can.
 func zeroHeatNote(r *rockheat.Result) string {

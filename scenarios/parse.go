@@ -116,12 +116,20 @@ func (c *checker) model(r *raw) rockheat.Model {
 	kind := choice(c, "model.kind", r.Model.Kind, heatmodel.Kinds, heatmodel.KindReservoir)
 	fluid := choice(c, "model.fluid", r.Model.Fluid, heatmodel.FluidSources, heatmodel.FluidFixed)
 	conv := choice(c, "model.conversion", r.Model.Conversion, heatmodel.Conversions, heatmodel.ConversionEfficiency)
+	if kind == heatmodel.KindPowerDensity {
+		if r.Model.Fluid != nil || r.Model.Conversion != nil {
+			c.add("model", "kind \"power-density\" takes no fluid or conversion: it scales an area by the power density of analogous fields; remove them")
+		}
+	}
 	if kind != heatmodel.KindHotRock {
 		if r.Model.ReportYears != nil {
 			c.add("model.report_years", "applies to kind \"hot-rock\" only; remove it")
 		}
 		if len(r.Layers) > 0 {
 			c.add("layers", "[[layers]] apply to kind \"hot-rock\" only; remove them")
+		}
+		if kind == heatmodel.KindPowerDensity {
+			return &rockheat.PowerDensity{}
 		}
 		return &rockheat.Reservoir{Fluid: fluid, Conversion: conv}
 	}
