@@ -31,7 +31,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	fmt.Fprintf(&b, "\nRanges in brackets are %.0f%% distribution-free confidence intervals of each percentile\n(order statistics, binomial; Hahn & Meeker 1991): how far the figure could move with more trials.\n", 100*level)
 	wrap(&b, Convention, 100)
 	for _, note := range runNotes(r) {
-		b.WriteString(note + "\n")
+		wrap(&b, note, 100)
 	}
 	sensitivityText(&b, r)
 
