@@ -55,10 +55,10 @@ func run(stdout, stderr io.Writer, args []string) error {
 		OnUsageError: func(c *cli.Context, err error, isSubcommand bool) error {
 			return usageError{err}
 		},
-		Commands: []*cli.Command{runCommand(), validateCommand(), examplesCommand()},
+		Commands: []*cli.Command{runCommand(), validateCommand(), examplesCommand(), regressCommand()},
 		Action: func(c *cli.Context) error {
 			if c.NArg() > 0 {
-				return usagef("unknown command %q; the commands are run, validate and examples (see rockheat --help)", c.Args().First())
+				return usagef("unknown command %q; the commands are run, validate, examples and regress (see rockheat --help)", c.Args().First())
 			}
 			return cli.ShowAppHelp(c)
 		},
@@ -83,7 +83,7 @@ func flagsFirst(args []string) []string {
 		case a == "--":
 			rest = append(rest, args[i:]...)
 			i = len(args)
-		case a == "-h" || a == "--help" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
+		case a == "-h" || a == "--help" || a == "--update" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
 			flags = append(flags, a)
 		case strings.HasPrefix(a, "-") && len(a) > 1 && !isNumber(a):
 			flags = append(flags, a)

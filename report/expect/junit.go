@@ -51,7 +51,7 @@ type junitCase struct {
 type junitProblem struct {
 	Message string `xml:"message,attr"`
 	Type    string `xml:"type,attr"`
-	Text    string `xml:",chardata"`
+	Text    string `xml:",cdata"`
 }
 
 // WriteJUnit writes cases as a JUnit-style XML report: one test suite

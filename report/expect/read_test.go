@@ -25,6 +25,9 @@ func validText(t testing.TB) string {
 // gives an error naming what is wrong.
 func TestReadProblems(t *testing.T) {
 	t.Parallel()
+	if _, err := Read(strings.NewReader(fuzzSeed)); err != nil {
+		t.Errorf("the fuzz seed is not a valid expectation: %v", err)
+	}
 	good := validText(t)
 	p50 := between(good, `"p50": "`, `"`)
 	cases := []struct {
@@ -82,7 +85,7 @@ func TestReadTruncatedAnywhere(t *testing.T) {
 // FuzzRead: Read never panics, and what it accepts writes back and reads
 // again to the same record.
 func FuzzRead(f *testing.F) {
-	f.Add(validText(f))
+	f.Add(fuzzSeed)
 	f.Add(`{"format": "` + Format + `"}`)
 	f.Fuzz(func(t *testing.T, text string) {
 		e, err := Read(strings.NewReader(text))
@@ -111,3 +114,6 @@ func replaceKey(s, key, value string) string {
 	old := between(s, `"`+key+`": `, ",")
 	return strings.Replace(s, `"`+key+`": `+old+",", `"`+key+`": `+value+",", 1)
 }
+
+// fuzzSeed is a small valid expectation.
+var fuzzSeed = `{"format": "rockheat-expectation/1", "scenario_sha256": "` + strings.Repeat("ab", 32) + `", "trials": 10, "sampling": "lhs", "confidence": 0.95, "percentiles": "exact", "outputs": [{"name": "heat_in_place", "p90": "1", "p50": "2", "p10": "3", "mean": "2", "sd": "1", "min": "0", "max": "4", "p90_ci": ["0", "2"], "p50_ci": ["1", "3"], "p10_ci": ["2", "4"], "mean_ci": ["1", "3"]}]}`
