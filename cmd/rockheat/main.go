@@ -7,6 +7,7 @@
 //	rockheat run SCENARIO [--format text|json|csv] [--samples FILE] [--trials N] [--seed S] [--workers W]
 //	rockheat validate SCENARIO...
 //	rockheat examples [NAME]
+//	rockheat regress DIR|FILE... [--tolerance exact|stat] [--update] [--junit FILE]
 //
 // SCENARIO is a TOML file or the name of a bundled example. Exit status is
 // 0 on success, 1 when a run fails, 2 for bad usage or a bad scenario.
