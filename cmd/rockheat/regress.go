@@ -189,7 +189,7 @@ func runCases(paths []string, cfg *regressConfig) []*regressCase {
 	cases := make([]*regressCase, len(paths))
 	procs := runtime.GOMAXPROCS(0)
 	jobs := min(len(paths), procs)
-	workers := max(1, procs/jobs)
+	workers := max(1, procs/max(jobs, 1))
 	build := expect.CurrentBuild()
 	next := make(chan int)
 	var wg sync.WaitGroup

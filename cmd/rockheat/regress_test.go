@@ -365,3 +365,13 @@ func TestRegressUsage(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkRegressLibrary checks the bundled library in exact mode, as
+// .ci/run does.
+func BenchmarkRegressLibrary(b *testing.B) {
+	for b.Loop() {
+		if _, se, code := rockheatCLI("regress", examples); code != 0 {
+			b.Fatalf("exit %d: %s", code, se)
+		}
+	}
+}
