@@ -7,7 +7,8 @@
 //	rockheat run SCENARIO [--format text|json|csv] [--samples FILE] [--trials N] [--seed S] [--workers W]
 //	rockheat validate SCENARIO...
 //	rockheat examples [NAME]
-//	rockheat regress DIR|FILE... [--tolerance exact|stat] [--update] [--junit FILE]
+//	rockheat regress DIR|FILE... [--tolerance exact|stat] [--alpha FRACTION] [--junit FILE]
+//	                      [--update] [--trials N] [--seed S]
 //
 // SCENARIO is a TOML file or the name of a bundled example. Exit status is
 // 0 on success, 1 when a run fails, 2 for bad usage or a bad scenario.
