@@ -48,18 +48,21 @@
 //   - P90, P50, P10: from the percentile's own distribution-free interval,
 //     se = (hi − lo) / (2·z_c), z_c = Φ⁻¹((1 + c)/2) for the interval's
 //     level c: the order-statistic interval spans about ±z_c standard errors
-//     of the percentile (asymptotic normality of sample quantiles). When the
+//     of the percentile (asymptotic normality of sample quantiles; Serfling
+//     1980, "Approximation Theorems of Mathematical Statistics", §2.3, from
+//     memory). When the
 //     percentiles come from sketches, each side's relative error bound times
 //     its value is added to the allowance.
 //   - mean: sd/√n.
 //   - sd: the asymptotic standard error of a sample standard deviation,
-//     √((μ₄ − σ⁴)/(4σ²n)) by the delta method on Var(s²) ≈ (μ₄ − σ⁴)/n,
+//     √((μ₄ − σ⁴)/(4σ²n)) by the delta method on Var(s²) ≈ (μ₄ − σ⁴)/n (a
+//     standard result of sampling theory, from memory),
 //     with the fourth central moment, which a run does not report, bounded
 //     by μ₄ ≤ R²σ² (R = max(max − mean, mean − min), the largest distance of
 //     a trial from the mean): se ≤ √((R² − s²)/(4n)). This is conservative
 //     (about three times too wide for a normal output), so sd catches only
 //     gross changes of spread; P90 and P10 catch the rest.
-//   - zero-heat trials: the pooled two-proportion test, the difference of
+//   - zero-heat trials: the pooled two-proportion test (common practice), the difference of
 //     the fractions k/n allowed up to z·√(p(1−p)(1/n₁ + 1/n₂)) with p the
 //     pooled fraction.
 //   - min, max and the interval ends are not compared statistically: the
