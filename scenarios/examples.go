@@ -17,7 +17,11 @@ var examplesFS embed.FS
 type Example struct {
 	Name  string // name to give `rockheat examples NAME`, e.g. "demo"
 	Title string // the scenario's title
-	Text  []byte // the commented TOML file
+	// Description is the first line of the file's opening comment, which
+	// says what the prospect represents; the title if the file opens with
+	// no comment.
+	Description string
+	Text        []byte // the commented TOML file
 }
 
 // Examples returns the bundled example scenarios, sorted by name.
@@ -37,10 +41,22 @@ func Examples() []Example {
 		if s, err := Parse(name, text); err == nil {
 			ex.Title = s.Run.Title
 		}
+		ex.Description = describe(text, ex.Title)
 		out = append(out, ex)
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].Name < out[j].Name })
 	return out
+}
+
+// describe returns the first line of the comment text opens with, without
+// its "#", or title when text does not open with a comment.
+func describe(text []byte, title string) string {
+	first, _, _ := strings.Cut(string(text), "\n")
+	first = strings.TrimSpace(first)
+	if d := strings.TrimSpace(strings.TrimLeft(first, "#")); strings.HasPrefix(first, "#") && d != "" {
+		return d
+	}
+	return title
 }
 
 // LookupExample returns the bundled example with the given name.

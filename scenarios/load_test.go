@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"bytes"
 	"errors"
 	"strings"
 	"testing"
@@ -141,6 +142,11 @@ func TestExamplesParse(t *testing.T) {
 		if ex.Title == "" || !strings.Contains(strings.ToLower(ex.Title), "invented") {
 			t.Errorf("example %s: title %q should say the prospect is invented", ex.Name, ex.Title)
 		}
+		// The listing shows the opening comment's first line.
+		if !bytes.HasPrefix(ex.Text, []byte("# ")) || ex.Description == "" || ex.Description == ex.Title ||
+			!bytes.Contains(ex.Text, []byte(ex.Description)) || strings.Contains(ex.Description, "\n") {
+			t.Errorf("example %s: description %q should be the first line of an opening comment", ex.Name, ex.Description)
+		}
 	}
 	if _, err := LookupExample("nonesuch"); err == nil || !strings.Contains(err.Error(), "demo") {
 		t.Errorf("LookupExample(nonesuch) = %v, want an error listing the examples", err)
@@ -166,4 +172,19 @@ func FuzzParse(f *testing.F) {
 			t.Fatalf("error %v is not Problems", err)
 		}
 	})
+}
+
+func TestDescribe(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct{ text, want string }{
+		{"# An invented prospect.\n# More.\ntitle = \"T\"\n", "An invented prospect."},
+		{"#   spaced out  \n", "spaced out"},
+		{"##\ntitle = \"T\"\n", "T"},
+		{"title = \"T\"\n# late comment\n", "T"},
+		{"", "T"},
+	} {
+		if got := describe([]byte(c.text), "T"); got != c.want {
+			t.Errorf("describe(%q) = %q, want %q", c.text, got, c.want)
+		}
+	}
 }

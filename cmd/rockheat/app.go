@@ -64,10 +64,10 @@ func newApp(stdout, stderr io.Writer) *cli.App {
 		OnUsageError: func(c *cli.Context, err error, isSubcommand bool) error {
 			return usageError{err}
 		},
-		Commands: []*cli.Command{runCommand(), portfolioCommand(), validateCommand(), examplesCommand()},
+		Commands: []*cli.Command{runCommand(), portfolioCommand(), validateCommand(), examplesCommand(), regressCommand()},
 		Action: func(c *cli.Context) error {
 			if c.NArg() > 0 {
-				return usagef("unknown command %q; the commands are run, portfolio, validate and examples (see rockheat --help)", c.Args().First())
+				return usagef("unknown command %q; the commands are run, portfolio, validate, examples and regress (see rockheat --help)", c.Args().First())
 			}
 			return cli.ShowAppHelp(c)
 		},
@@ -104,7 +104,7 @@ func flagsFirst(args []string) ([]string, error) {
 		case a == "-h" || a == "--help":
 			// Help for the command, whatever else is given.
 			return append(out, "--help"), nil
-		case strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
+		case a == "--update" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
 			flags = append(flags, a)
 		case strings.HasPrefix(a, "-") && len(a) > 1 && !isNumber(a):
 			if i+1 == len(args) || strings.HasPrefix(args[i+1], "--") {

@@ -18,7 +18,7 @@ func examplesCommand() *cli.Command {
 			switch c.NArg() {
 			case 0:
 				for _, ex := range scenarios.Examples() {
-					fmt.Fprintf(c.App.Writer, "%-16s %s\n", ex.Name, ex.Title)
+					fmt.Fprintf(c.App.Writer, "%-16s %s\n", ex.Name, ex.Description)
 				}
 				fmt.Fprintln(c.App.Writer, "\nPortfolios:")
 				for _, name := range scenarios.BundledPortfolios() {

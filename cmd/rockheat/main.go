@@ -10,6 +10,8 @@
 //	                      [--samples FILE] [--trials N] [--seed S] [--workers W]
 //	rockheat validate SCENARIO...
 //	rockheat examples [NAME]
+//	rockheat regress DIR|FILE... [--tolerance exact|stat] [--alpha FRACTION] [--junit FILE]
+//	                      [--update] [--trials N] [--seed S]
 //	rockheat help [COMMAND]
 //	rockheat --version
 //

@@ -281,3 +281,19 @@ func (s *Set) undo() error {
 	}
 	return errors.Join(errs...)
 }
+
+// WriteFile writes one file by the rules of a Set: checked, written to a
+// temporary file beside it and renamed into place only when write
+// succeeds. flag names the file in messages (e.g. "--junit").
+func WriteFile(flag, path string, write func(io.Writer) error) error {
+	s := New(io.Discard)
+	t, err := s.Add(flag, path)
+	if err != nil {
+		return err
+	}
+	if err := t.Write(write); err != nil {
+		s.Abort()
+		return err
+	}
+	return s.Commit()
+}
