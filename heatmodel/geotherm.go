@@ -31,11 +31,13 @@ import (
 // Profile has no shape (IsZero); HotRock reads it as "no fixed geotherm
 // given".
 //
-// Where the heat production above a depth exceeds the surface heat flow,
-// the heat flow falls to zero at that depth (PeakDepth) and the
-// temperature is highest there; below it the steady solution has heat
-// flowing down and the temperature falling. Such rock is not a physical
-// geotherm: callers should keep depths above PeakDepth.
+// At the depth where the heat produced above it equals the surface heat
+// flow, the heat flow falls to zero and the temperature is highest
+// (PeakDepth); below it the steady solution has heat flowing down and the
+// temperature falling. That is not a physical geotherm (the heat flow from
+// below is taken as negative): callers should keep depths above PeakDepth.
+// A last layer with heat production always has such a depth, at
+// q_top/A below its top.
 type Profile struct {
 	// g, c and k shape a profile of one layer from the surface (segs nil):
 	// Rise(z) = g·z − c·z², with g in K/m, c in K/m² and conductivity k

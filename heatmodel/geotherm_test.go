@@ -302,7 +302,7 @@ func TestProfileIntegralQuadrature(t *testing.T) {
 // and T(10 km) = 10 + 160 + 100·(1 − e^(−1)) = 233.212056 °C. Each layer
 // of thickness h carries the mean heat production of its depths, so the
 // heat flow is exact at the boundaries and linear between; the
-// temperature then exceeds the exact one by (h²/12)·∫q”dz/k =
+// temperature then exceeds the exact one by (h²/12)·∫q″dz/k =
 // h²·(A(0) − A(z))/(12k) to leading order, the error of the trapezoid rule.
 func TestExponentialHeatProduction(t *testing.T) {
 	t.Parallel()
