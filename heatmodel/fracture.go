@@ -7,11 +7,11 @@ import (
 )
 
 // FractureFlow is the parallel-fracture model of heat extraction of
-// Gringarten, Witherspoon & Ohnishi (1975, "Theory of heat extraction from
-// fractured hot dry rock", J. Geophys. Res. 80(8)): water flows through N
-// parallel vertical fractures, each of height H and flow path L from
-// injector to producer, spaced 2D apart (D half the spacing), in rock that
-// starts uniformly at T0; water enters every fracture at T_in. Heat
+// Gringarten, Witherspoon & Ohnishi (1975, J. Geophys. Res. 80(8)): water
+// flows through N parallel vertical fractures, each of height H and flow
+// path L from injector to producer, spaced 2D apart (D half the spacing),
+// in rock that starts uniformly at T0; water enters every fracture at
+// T_in. Heat
 // reaches the fractures by conduction in the rock normal to them only, and
 // the water in a fracture stores no heat. With q = Q/(N·H) the flow per
 // fracture per unit height (m²/s) and α = k/(ρr·cr), the outlet cooling
@@ -20,8 +20,9 @@ import (
 //	R(p) = (1/p)·exp(−(2·k·L/(ρw·cw·q))·√(p/α)·tanh(D·√(p/α))).
 //
 // The methods invert it numerically (see fracture_laplace.go: the fixed
-// Talbot contour of Abate & Valkó 2004 with 32 nodes for λ ≤ 15, the
-// trapezoid rule on the Bromwich line through the saddle point above).
+// Talbot contour of Abate & Valkó 2004 with 32 nodes for SpacingNumber
+// λ ≤ 15, the trapezoid rule on the Bromwich line through the saddle point
+// above).
 // Against arbitrary-precision inversion (mpmath, testdata) the outlet
 // ratio R, and so the power P/P0 = 1 − R, is within 1.3e-11 absolute and
 // the heat mined within 6.4e-12 relative, for SpacingNumber 0.01–200 and

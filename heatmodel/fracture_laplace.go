@@ -18,17 +18,18 @@ import (
 // with λ. Two methods share the work:
 //
 //   - λ ≤ gwoTalbotMax: the fixed Talbot contour of Abate & Valkó (2004,
-//     "Multi-precision Laplace transform inversion", Int. J. Numer. Meth.
-//     Eng. 60) with talbotM nodes. Its contour wraps the negative axis, and
+//     "Multi-precision Laplace transform inversion") with talbotM nodes. Its contour wraps the negative axis, and
 //     the terms near the poles grow like e^(5λ·|s|·t/(M·π)) against the
 //     e^(−|s|·t) of the kernel, so in double precision it holds only for
 //     λ below about M/2 (with M = 32, measured against mpmath: errors
 //     4e-12 at λ = 15, 1.7e-10 at 20, 1e-7 at 30).
 //   - λ > gwoTalbotMax: the Bromwich line Re s = σ through the saddle point
-//     of e^(s·t_D − λg(s)) (where t_D = λ·g'(σ)), by the trapezoid rule. On
-//     that line the integrand is bounded and, for large λ, Gaussian about
-//     the saddle (the central-limit form of a sharp thermal front), so a few
-//     dozen nodes suffice.
+//     of e^(s·t_D − λg(s)) (where t_D = λ·g'(σ)), by the trapezoid rule
+//     (the Fourier-series form of the Bromwich integral, its abscissa
+//     chosen at the saddle point: common practice). On that line the
+//     integrand is bounded and, for large λ, Gaussian about the saddle (the
+//     central-limit form of a sharp thermal front), so a few dozen nodes
+//     suffice.
 //
 // Accuracy, measured against mpmath.invertlaplace in 30–330 digits on
 // λ = 0.01–200, t_D/λ = 0.01–10 (testdata/fracture_gwo_table.csv,

@@ -241,8 +241,9 @@ func TestFractureEnergyBalance(t *testing.T) {
 // tanh): the cumulant function λ·(u + u²/3 + 2u³/15 + 17u⁴/315 + …) gives
 // mean λ, variance σ² = 2λ/3, skewness γ = 0.8λ/σ³ = 1.4697/√λ and
 // excess kurtosis κ = (408/315)·λ/σ⁴ = 2.9143/λ. R(t) = P(X ≤ t_D) is then
-// the Edgeworth expansion (e.g. Kendall & Stuart, "The Advanced Theory of
-// Statistics", vol. 1) with z = (t_D − λ)/σ:
+// the Edgeworth expansion (a standard result of statistics, e.g. Kendall &
+// Stuart, "The Advanced Theory of Statistics", vol. 1, from memory) with
+// z = (t_D − λ)/σ:
 //
 //	R ≈ Φ(z) − φ(z)·[γ/6·He2(z) + κ/24·He3(z) + γ²/72·He5(z)],
 //
