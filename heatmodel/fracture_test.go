@@ -347,7 +347,7 @@ func mustPanic(t *testing.T, what string, fn func()) {
 // giving λ = 0.3 to 300 around baseFracture's τ = 31.7 years.
 func BenchmarkFractureFlow(b *testing.B) {
 	const year = 365.25 * 86400
-	for _, lam := range []float64{0.3, 3, 10, 15, 30, 100, 300} {
+	for _, lam := range []float64{0.3, 3, 10, 15, 16, 20, 30, 100, 300} {
 		b.Run(fmt.Sprintf("lambda=%g", lam), func(b *testing.B) {
 			f := baseFracture()
 			f.Fractures *= math.Sqrt(lam / 10)
