@@ -5,6 +5,79 @@ import (
 	"math"
 )
 
+// exponentialTrial evaluates trial i by the exponential decline of a
+// well-mixed block (Armstead & Tester 1987): the useful heat E0, τ, the
+// power at the report times and the heat mined over the life.
+func (h *HotRock) exponentialTrial(i int, p Profile, z1, z2 float64, out HotRockOutputs) {
+	ts, tmin := h.SurfaceTemp.At(i), h.MinTemp.At(i)
+	rhoR, cR := h.RockDensity.At(i), h.RockHeatCapacity.At(i)
+	e0 := h.Area.At(i) * UsefulHeat(p, ts, tmin, z1, z2, rhoR, cR)
+	tau := TimeConstant(z1, z2, rhoR, cR, h.Flux.At(i), h.WaterDensity.At(i), h.WaterHeatCapacity.At(i))
+	out.HeatInPlace[i] = e0
+	out.TimeConstant[i] = tau
+	out.InitialPower[i] = HeatMiningPower(e0, tau, 0)
+	for k, t := range h.ReportTimes {
+		out.PowerAt[k][i] = HeatMiningPower(e0, tau, t)
+	}
+	out.Recovered[i] = HeatMined(e0, tau, h.Life.At(i))
+}
+
+// Fractures returns the parallel-fracture model of trial i of h, whose
+// mined interval is z1–z2 under profile p: the interval's plan area A holds
+// N = A/(L·S) fractures of flow path L and spacing S, each spanning the
+// interval's height H = z2 − z1, sharing the circulated flow Q = flux·A;
+// the rock starts at the interval's mean temperature T0 and water enters
+// at the minimum useful temperature (the stated simplification: the
+// interval's temperature profile is replaced by its mean, which keeps its
+// useful heat, A·H·ρr·cr·(T0 − Tmin)).
+func (h *HotRock) Fractures(i int, p Profile, z1, z2 float64) FractureFlow {
+	area, spacing, path := h.Area.At(i), h.FractureSpacing.At(i), h.FlowPath.At(i)
+	return FractureFlow{
+		Fractures: area / (path * spacing), HalfSpacing: spacing / 2, Length: path, Height: z2 - z1,
+		Flow: h.Flux.At(i) * area, RockConductivity: h.RockConductivity.At(i),
+		RockDensity: h.RockDensity.At(i), RockHeatCapacity: h.RockHeatCapacity.At(i),
+		WaterDensity: h.WaterDensity.At(i), WaterHeatCapacity: h.WaterHeatCapacity.At(i),
+		RockTemp: h.SurfaceTemp.At(i) + p.MeanRise(z1, z2), InjectionTemp: h.MinTemp.At(i),
+	}
+}
+
+// fractureTrial evaluates trial i by the parallel-fracture drawdown of
+// Gringarten, Witherspoon & Ohnishi (1975).
+func (h *HotRock) fractureTrial(i int, p Profile, z1, z2 float64, out HotRockOutputs) {
+	f := h.Fractures(i, p, z1, z2)
+	out.HeatInPlace[i] = f.HeatInPlace()
+	out.TimeConstant[i] = f.TimeConstant()
+	out.InitialPower[i] = f.InitialPower()
+	for k, t := range h.ReportTimes {
+		out.PowerAt[k][i] = f.Power(t)
+	}
+	out.Recovered[i] = f.HeatMined(h.Life.At(i))
+}
+
+// Decline is the model of a hot-rock block's thermal drawdown.
+type Decline int
+
+const (
+	// DeclineExponential is the well-mixed block of the heat-mining model:
+	// P(t) = (E0/τ)·e^(−t/τ).
+	DeclineExponential Decline = iota
+	// DeclineFractures is water through parallel fractures
+	// (FractureFlow).
+	DeclineFractures
+)
+
+// Declines lists the decline models.
+var Declines = []Decline{DeclineExponential, DeclineFractures}
+
+// String returns the decline's name in scenario files: "exponential" or
+// "fractures".
+func (d Decline) String() string {
+	if d == DeclineFractures {
+		return "fractures"
+	}
+	return "exponential"
+}
+
 // UsefulTop returns z1, m: the depth at which the rock of profile p under
 // a surface at ts, K, reaches the minimum useful temperature tmin, K, or
 // top, m, if that is deeper. It is 0 if tmin ≤ ts and top ≤ 0.
@@ -101,6 +174,13 @@ type HotRock struct {
 	CapacityFactor       Column    // fraction, (0, 1]
 	Life                 Column    // s, > 0
 	ReportTimes          []float64 // s, ≥ 0, times at which PowerAt reports P(t)
+	// Columns, when not nil, gives each trial's geotherm; Gradient and
+	// Geotherm are then not read.
+	Columns *GeothermColumns
+	// Decline selects the drawdown; DeclineFractures reads the fracture
+	// spacing S and flow path L, m, and the rock's conductivity, W/(m·K).
+	Decline                                     Decline
+	FractureSpacing, FlowPath, RockConductivity Column
 }
 
 // HotRockOutputs holds the outputs of the hot-rock model, one value per
@@ -137,7 +217,13 @@ func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
 	fixed := !h.Geotherm.IsZero()
 	p := h.Geotherm
 	for i := 0; i < n; i++ {
-		if !fixed {
+		switch {
+		case h.Columns != nil:
+			var err error
+			if p, err = h.Columns.At(i); err != nil {
+				panic("heatmodel: HotRock.Evaluate with a geotherm that is not one: " + err.Error())
+			}
+		case !fixed:
 			p = UniformProfile(h.Gradient.At(i))
 		}
 		ts, tmin := h.SurfaceTemp.At(i), h.MinTemp.At(i)
@@ -151,20 +237,14 @@ func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
 			zeroHeat++
 			continue
 		}
-		rhoR, cR := h.RockDensity.At(i), h.RockHeatCapacity.At(i)
-		e0 := h.Area.At(i) * UsefulHeat(p, ts, tmin, z1, z2, rhoR, cR)
-		tau := TimeConstant(z1, z2, rhoR, cR, h.Flux.At(i), h.WaterDensity.At(i), h.WaterHeatCapacity.At(i))
-		life := h.Life.At(i)
-		rec := HeatMined(e0, tau, life)
-		out.HeatInPlace[i] = e0
-		out.TimeConstant[i] = tau
-		out.InitialPower[i] = HeatMiningPower(e0, tau, 0)
-		for k, t := range h.ReportTimes {
-			out.PowerAt[k][i] = HeatMiningPower(e0, tau, t)
+		if h.Decline == DeclineFractures {
+			h.fractureTrial(i, p, z1, z2, out)
+		} else {
+			h.exponentialTrial(i, p, z1, z2, out)
 		}
-		out.Recovered[i] = rec
-		out.MeanPower[i] = rec / life
-		out.ElectricPower[i] = h.ConversionEfficiency.At(i) * (rec / life) / h.CapacityFactor.At(i)
+		life := h.Life.At(i)
+		out.MeanPower[i] = out.Recovered[i] / life
+		out.ElectricPower[i] = h.ConversionEfficiency.At(i) * (out.Recovered[i] / life) / h.CapacityFactor.At(i)
 	}
 	return zeroHeat
 }
