@@ -39,8 +39,10 @@ const (
 	// between folds: a square is below 2^106, so 2^21 of them stay below
 	// 2^127, and 2^21 significands below 2^53 stay below 2^74 in size.
 	accLimit = 1 << 21
-	// exponents is the number of biased float64 exponents of finite values.
-	exponents = 2047
+	// exponents is the number of biased float64 exponents (the last, of
+	// infinities and NaN, is never used; it lets an exponent index acc
+	// without a bounds check).
+	exponents = 2048
 )
 
 // fixed is an exact fixed-point accumulator with least significant bit of

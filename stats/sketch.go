@@ -3,6 +3,7 @@ package stats
 import (
 	"fmt"
 	"math"
+	"math/bits"
 	"sync"
 )
 
@@ -129,34 +130,62 @@ func (s *Sketch) AddSlice(xs []float64) {
 
 // addRun adds xs, at most s.mom.room() values, to everything but the count
 // of the moments' accumulators, which the caller records. It is Add with
-// the extremes held in locals and the sums and bins of finite non-zero
-// values written out; zeros, infinities and NaNs go through Add.
+// the extremes held in locals and the work for a normal value — bin look-up
+// (binTable.index), bin count (bins.inc) and sums (addBits) — written out;
+// zeros, subnormals, infinities and NaNs go through Add.
 func (s *Sketch) addRun(xs []float64) {
 	lo, hi := s.min, s.max
 	acc := s.mom.acc
-	var n int64 // finite non-zero values
+	t := s.tab
+	cell, frac, shift, k, multi := t.cell, t.frac, 52-t.bits, t.k, t.multi
+	var n int64 // normal values
 	for _, x := range xs {
 		u := math.Float64bits(x)
-		a := u &^ (1 << 63)                 // bits of |x|
-		if a-1 >= 0x7ff0_0000_0000_0000-1 { // 0 (a−1 wraps), ±Inf or NaN
+		a := u &^ (1 << 63)                         // bits of |x|
+		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 { // below 2^−1022 (a−2^52 wraps), ±Inf or NaN
 			s.min, s.max = lo, hi
-			s.Add(x)
+			s.Add(x) // counts a subnormal once more towards the next fold: it only comes sooner
 			lo, hi = s.min, s.max
 			continue
 		}
+		n++
 		if x < lo {
 			lo = x
 		}
 		if x > hi {
 			hi = x
 		}
+		// Bin: as binTable.index for a normal value.
+		f := a & fracMask
+		j := int(cell[f>>shift])
+		j += int((frac[j+1] - 1 - f) >> 63)
+		if multi {
+			for f >= frac[j+1] {
+				j++
+			}
+		}
+		i := (int(a>>52)-1023)*k + j
 		b := &s.pos
 		if u>>63 != 0 {
 			b = &s.neg
 		}
-		b.inc(s.tab.index(math.Float64frombits(a)))
-		addBits(acc, u)
-		n++
+		if c := i - b.off; uint(c) < uint(len(b.counts)) {
+			b.counts[c]++
+		} else {
+			b.inc(i)
+		}
+		// Sums: as addBits for a normal value, whose significand has its
+		// implicit bit.
+		m := f | 1<<52
+		e := &acc[a>>52]
+		neg := int64(u) >> 63 // −1 for a negative value
+		sm := uint64((int64(m) ^ neg) - neg)
+		var c uint64
+		e.sumLo, c = bits.Add64(e.sumLo, sm, 0)
+		e.sumHi += uint64(neg) + c
+		sh, sl := bits.Mul64(m, m)
+		e.sqLo, c = bits.Add64(e.sqLo, sl, 0)
+		e.sqHi += sh + c
 	}
 	s.min, s.max = lo, hi
 	s.n += uint64(n)
@@ -330,7 +359,7 @@ func (b *bins) merge(o *bins) {
 // is within (γ−1)/(γ+1) relative error of every value in it.
 type binTable struct {
 	k      int
-	bits   uint      // mantissa bits indexing cell
+	bits   uint      // fraction bits indexing cell
 	cell   []uint32  // cell[c]: bin of the first mantissa of cell c (see newBinTable)
 	multi  bool      // whether a cell may hold more than one bin end
 	bound  []float64 // k+1 bin ends in [1, 2]
