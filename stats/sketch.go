@@ -132,23 +132,29 @@ func (s *Sketch) AddSlice(xs []float64) {
 // of the moments' accumulators, which the caller records. It is Add with
 // the extremes held in locals and the work for a normal value — bin look-up
 // (binTable.index), bin count (bins.inc) and sums (addBits) — written out;
-// zeros, subnormals, infinities and NaNs go through Add.
+// zeros, subnormals, infinities and NaNs go through Add, and so does every
+// value for resolutions finer than 7.6·10⁻⁶, whose bin look-up walks.
 func (s *Sketch) addRun(xs []float64) {
+	t := s.tab
+	if t.multi {
+		for _, x := range xs {
+			s.Add(x)
+		}
+		return
+	}
 	lo, hi := s.min, s.max
 	acc := s.mom.acc
-	t := s.tab
-	cell, frac, shift, k, multi := t.cell, t.frac, 52-t.bits, t.k, t.multi
-	var n int64 // normal values
+	cell, frac, shift, k := t.cell, t.frac, 52-t.bits, t.k
+	before := s.n + s.nan // counts of the values that go through Add
 	for _, x := range xs {
 		u := math.Float64bits(x)
-		a := u &^ (1 << 63)                         // bits of |x|
+		a := u &^ (1 << 63) // bits of |x|
 		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 { // below 2^−1022 (a−2^52 wraps), ±Inf or NaN
 			s.min, s.max = lo, hi
 			s.Add(x) // counts a subnormal once more towards the next fold: it only comes sooner
 			lo, hi = s.min, s.max
 			continue
 		}
-		n++
 		if x < lo {
 			lo = x
 		}
@@ -159,11 +165,6 @@ func (s *Sketch) addRun(xs []float64) {
 		f := a & fracMask
 		j := int(cell[f>>shift])
 		j += int((frac[j+1] - 1 - f) >> 63)
-		if multi {
-			for f >= frac[j+1] {
-				j++
-			}
-		}
 		i := (int(a>>52)-1023)*k + j
 		b := &s.pos
 		if u>>63 != 0 {
@@ -188,8 +189,9 @@ func (s *Sketch) addRun(xs []float64) {
 		e.sqHi += sh + c
 	}
 	s.min, s.max = lo, hi
-	s.n += uint64(n)
-	s.mom.n += n
+	normal := uint64(len(xs)) - (s.n + s.nan - before)
+	s.n += normal
+	s.mom.n += int64(normal)
 }
 
 // Merge adds the values summarised by o to s; o is not changed. The
