@@ -31,7 +31,7 @@ const (
 	sumLimbs = 72
 	// sqLSB is the weight of the least significant bit of a sum of squares;
 	// squares reach 2^2048, so 2^63 of them need 2048+63+2148 bits, plus 5
-	// limbs touched by a 106-bit term: 138 limbs.
+	// limbs touched by a term of up to 128 bits: 138 limbs.
 	sqLSB   = 2 * sumLSB
 	sqLimbs = 138
 
@@ -142,7 +142,7 @@ type moments struct {
 	sum, sq fixed
 	pending int // adds to the limbs since the last carry propagation, as counted by merge
 	acc     *[exponents]expAcc
-	accN    int // values added to acc since the last fold, at most accLimit
+	accN    int // at least the number of values added to acc since the last fold; below accLimit
 }
 
 func newMoments() *moments {
