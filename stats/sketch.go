@@ -148,8 +148,9 @@ func (s *Sketch) addRun(xs []float64) {
 	before := s.n + s.nan // counts of the values that go through Add
 	for _, x := range xs {
 		u := math.Float64bits(x)
-		a := u &^ (1 << 63)                         // bits of |x|
-		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 { // below 2^−1022 (a−2^52 wraps), ±Inf or NaN
+		a := u &^ (1 << 63) // bits of |x|
+		// Below 2^−1022 (a − 2^52 wraps), ±Inf or NaN:
+		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 {
 			s.min, s.max = lo, hi
 			s.Add(x) // counts a subnormal once more towards the next fold: it only comes sooner
 			lo, hi = s.min, s.max
