@@ -80,7 +80,11 @@ func (u Uniform) String() string { return fmt.Sprintf("uniform(min %g, max %g)",
 // and upper limit Max.
 type Triangular struct {
 	min, mode, max float64
-	d              distuv.Triangle
+	// Constants of the quantile, which distuv.Triangle.Quantile computes
+	// on every call: the CDF at the mode, max − min, mode − min and
+	// max − mode.
+	f, ba, ca, bc float64
+	d             *distuv.Triangle // for the CDF
 }
 
 // NewTriangular returns the triangular distribution on [min, max] with the
@@ -89,11 +93,26 @@ func NewTriangular(min, mode, max float64) (Triangular, error) {
 	if err := checkMinModeMax(min, mode, max); err != nil {
 		return Triangular{}, err
 	}
-	return Triangular{min, mode, max, distuv.NewTriangle(min, max, mode, nil)}, nil
+	tri := distuv.NewTriangle(min, max, mode, nil)
+	return Triangular{min: min, mode: mode, max: max,
+		f: (mode - min) / (max - min), ba: max - min, ca: mode - min, bc: max - mode,
+		d: &tri}, nil
 }
 
-// Quantile returns the p-quantile (closed form, via gonum distuv.Triangle).
-func (t Triangular) Quantile(p float64) float64 { return t.d.Quantile(p) }
+// Quantile returns the p-quantile: min + √(p·(max − min)·(mode − min))
+// below the mode, max − √((1 − p)·(max − min)·(max − mode)) above it. It
+// returns the same bits as gonum's distuv.Triangle.Quantile (the same
+// operations in the same order, with the constants computed once), and
+// like it panics if p is outside [0, 1].
+func (t Triangular) Quantile(p float64) float64 {
+	if p < 0 || p > 1 {
+		panic(fmt.Sprintf("sampler: triangular quantile of p = %g outside [0, 1]", p))
+	}
+	if p < t.f {
+		return t.min + math.Sqrt(p*t.ba*t.ca)
+	}
+	return t.max - math.Sqrt((1-p)*t.ba*t.bc)
+}
 
 // Support returns (Min, Max).
 func (t Triangular) Support() (lo, hi float64) { return t.min, t.max }

@@ -12,6 +12,11 @@ import (
 // pertNodes is the number of cells of each half of the PERT quantile table.
 const pertNodes = 2048
 
+// pertBuckets is the number of equal steps in t of the index that finds a
+// draw's cell: twice the number of cells, so that a look-up passes about
+// one node on average.
+const pertBuckets = 2 * pertNodes
+
 // PERT is the beta-PERT distribution with lower limit min, most likely
 // value mode and upper limit max: a beta distribution on [min, max] with
 // shape parameters α = 1 + 4·(mode − min)/(max − min) and
@@ -25,55 +30,133 @@ const pertNodes = 2048
 // the distribution is tabulated from its own end, against t = F^(1/α)
 // (lower half) or t = (1 − F)^(1/β) (upper half), in which the quantile is
 // smooth right up to the limit. The error is below 1e-12 of (max − min)
-// (checked against distuv.Beta.Quantile in the tests).
+// (checked against distuv.Beta.Quantile in the tests). A draw costs a
+// power, an index look-up and the cubic; the tables (about 100 kB) are
+// built once by NewPERT and shared by the copies of a PERT.
 type PERT struct {
 	min, mode, max float64
 	alpha, beta    float64
-	lo, hi         halfTable // lower half: Beta(α, β); upper: 1 − X ~ Beta(β, α)
+	width          float64     // max − min
+	tab            *pertTables // immutable once built
+}
+
+// pertTables holds the two halves of a PERT quantile table.
+type pertTables struct {
+	lo, hi halfTable // lower half: Beta(α, β); upper: 1 − X ~ Beta(β, α)
 }
 
 // halfTable inverts the CDF of Beta(a, b) for p ≤ 1/2.
 type halfTable struct {
-	a       float64
-	t, x, s []float64 // t = F(x)^(1/a) at the nodes, x, and dx/dt
+	a float64
+	// node[k] holds t = F(x)^(1/a), x and dx/dt at the k-th node, for
+	// k ≤ pertNodes; node[pertNodes+1].t = +Inf stops the search.
+	node []pertNode
+	pow  powRoute // how t = p^(1/a) is computed
+	y    float64  // exponent of the route (see powRoute)
+	// start[b] is the number of nodes whose t lies in a bucket below b,
+	// where t's bucket is min(⌊t·scale⌋, pertBuckets−1); nil if the nodes'
+	// t are not in increasing order, when a binary search finds the cell.
+	start []uint16
+	scale float64
 }
+
+type pertNode struct{ t, x, s float64 }
 
 func newHalfTable(a, b float64) halfTable {
 	ref := distuv.Beta{Alpha: a, Beta: b}
 	xm := ref.Quantile(0.5)
-	h := halfTable{a: a, t: make([]float64, pertNodes+1), x: make([]float64, pertNodes+1), s: make([]float64, pertNodes+1)}
-	for k := range h.x {
+	h := halfTable{a: a, node: make([]pertNode, pertNodes+2)}
+	for k := range pertNodes + 1 {
 		x := xm * (1 - math.Cos(math.Pi/2*float64(k)/pertNodes))
 		f := mathext.RegIncBeta(a, b, x)
 		t := math.Pow(f, 1/a)
-		h.x[k], h.t[k] = x, t
+		n := pertNode{t: t, x: x}
 		// dx/dt = (dx/dF)·(dF/dt) = a·t^(a−1) / pdf(x).
 		if pdf := ref.Prob(x); pdf > 0 {
-			h.s[k] = a * math.Pow(t, a-1) / pdf
+			n.s = a * math.Pow(t, a-1) / pdf
 		}
+		h.node[k] = n
 	}
 	// At x = 0, F ≈ x^a / (a·B(a, b)), so dx/dt → (a·B(a, b))^(1/a).
-	h.x[0], h.t[0] = 0, 0
-	h.s[0] = math.Pow(a*math.Exp(mathext.Lbeta(a, b)), 1/a)
+	h.node[0] = pertNode{t: 0, x: 0, s: math.Pow(a*math.Exp(mathext.Lbeta(a, b)), 1/a)}
+	h.node[pertNodes+1].t = math.Inf(1)
+	h.pow, h.y = powRouteFor(1 / a)
+	h.index()
 	return h
 }
 
+// index builds start and scale when the nodes' t increase (never
+// decrease), which the search by buckets relies on.
+func (h *halfTable) index() {
+	for k := range pertNodes {
+		if !(h.node[k].t <= h.node[k+1].t) {
+			return
+		}
+	}
+	top := h.node[pertNodes].t
+	if !(top > 0) {
+		return
+	}
+	h.scale = pertBuckets / top
+	h.start = make([]uint16, pertBuckets)
+	for k := range pertNodes + 1 {
+		if b := h.bucket(h.node[k].t); b+1 < pertBuckets {
+			h.start[b+1]++
+		}
+	}
+	for b := 1; b < pertBuckets; b++ {
+		h.start[b] += h.start[b-1]
+	}
+}
+
+// bucket returns the bucket of t ≥ 0 (the last one for NaN). It is
+// monotone in t, so the nodes below t's bucket all lie below t.
+func (h *halfTable) bucket(t float64) int {
+	if v := t * h.scale; v < pertBuckets-1 {
+		return int(v)
+	}
+	return pertBuckets - 1
+}
+
 // quantile returns the p-quantile, p in [0, 1/2].
+//
+// It returns the same value as the plain algorithm: t = math.Pow(p, 1/a),
+// k = sort.SearchFloat64s(t-nodes, t) − 1, then the cubic on cell k. The
+// power takes math.Pow's own route for the exponent (see powRoute) and the
+// cell is found from t's bucket by a forward walk, which ends at the first
+// node with t ≥ the draw's t, as the binary search does.
 func (h *halfTable) quantile(p float64) float64 {
 	if p <= 0 {
 		return 0
 	}
-	t := math.Pow(p, 1/h.a)
-	k := sort.SearchFloat64s(h.t, t) - 1
-	k = max(0, min(k, pertNodes-1))
-	d := h.t[k+1] - h.t[k]
-	if d <= 0 {
-		return h.x[k]
+	if !(p >= 0x1p-1022) || h.start == nil { // subnormal or NaN p, or no index
+		t := math.Pow(p, 1/h.a)
+		k := sort.Search(pertNodes+1, func(i int) bool { return h.node[i].t >= t }) - 1
+		return h.cell(k, t)
 	}
-	u := (t - h.t[k]) / d
+	t := h.pow.of(p, h.y)
+	i := int(h.start[h.bucket(t)])
+	for h.node[i].t < t {
+		i++
+	}
+	return h.cell(i-1, t)
+}
+
+// cell evaluates the cubic Hermite interpolant of cell k (clamped to the
+// table) at t.
+func (h *halfTable) cell(k int, t float64) float64 {
+	k = max(0, min(k, pertNodes-1))
+	n0, n1 := h.node[k], h.node[k+1]
+	d := n1.t - n0.t
+	if d <= 0 {
+		return n0.x
+	}
+	u := (t - n0.t) / d
 	u2, u3 := u*u, u*u*u
-	x := (2*u3-3*u2+1)*h.x[k] + (u3-2*u2+u)*d*h.s[k] + (-2*u3+3*u2)*h.x[k+1] + (u3-u2)*d*h.s[k+1]
-	return math.Min(math.Max(x, h.x[k]), h.x[k+1])
+	x := (2*u3-3*u2+1)*n0.x + (u3-2*u2+u)*d*n0.s + (-2*u3+3*u2)*n1.x + (u3-u2)*d*n1.s
+	// The built-in min and max order ±0 and NaN as math.Min and math.Max
+	// do (Go specification, "Min and max"), without a call.
+	return min(max(x, n0.x), n1.x)
 }
 
 // NewPERT returns the beta-PERT distribution on [min, max] with the given
@@ -83,22 +166,21 @@ func NewPERT(min, mode, max float64) (PERT, error) {
 		return PERT{}, err
 	}
 	r := max - min
-	p := PERT{min: min, mode: mode, max: max,
+	p := PERT{min: min, mode: mode, max: max, width: r,
 		alpha: 1 + 4*(mode-min)/r, beta: 1 + 4*(max-mode)/r}
-	p.lo = newHalfTable(p.alpha, p.beta)
-	p.hi = newHalfTable(p.beta, p.alpha)
+	p.tab = &pertTables{lo: newHalfTable(p.alpha, p.beta), hi: newHalfTable(p.beta, p.alpha)}
 	return p, nil
 }
 
 // Quantile returns the p-quantile of the PERT distribution.
 func (d PERT) Quantile(p float64) float64 {
 	if p <= 0.5 {
-		return d.min + (d.max-d.min)*d.lo.quantile(p)
+		return d.min + d.width*d.tab.lo.quantile(p)
 	}
 	if p >= 1 {
 		return d.max
 	}
-	return d.max - (d.max-d.min)*d.hi.quantile(1-p)
+	return d.max - d.width*d.tab.hi.quantile(1-p)
 }
 
 // CDF returns P(X ≤ x), the regularised incomplete beta function.

@@ -12,6 +12,12 @@ import (
 // Addition is then exact, hence associative and commutative: the mean and
 // standard deviation do not depend on the order in which values are added
 // or sketches merged, and they are correctly rounded.
+//
+// Values do not go to the limbs one by one: each is added, as an integer
+// significand, to a 128-bit accumulator of its binary exponent (two
+// integer additions for the value, two for its square), and the
+// accumulators are folded into the limbs every accLimit values and before
+// any result is read. The sums are the same integers either way.
 
 const (
 	limbBits   = 32
@@ -25,9 +31,18 @@ const (
 	sumLimbs = 72
 	// sqLSB is the weight of the least significant bit of a sum of squares;
 	// squares reach 2^2048, so 2^63 of them need 2048+63+2148 bits, plus 5
-	// limbs touched by a 106-bit term: 138 limbs.
+	// limbs touched by a term of up to 128 bits: 138 limbs.
 	sqLSB   = 2 * sumLSB
 	sqLimbs = 138
+
+	// accLimit is the number of values added to the exponent accumulators
+	// between folds: a square is below 2^106, so 2^21 of them stay below
+	// 2^127, and 2^21 significands below 2^53 stay below 2^74 in size.
+	accLimit = 1 << 21
+	// exponents is the number of biased float64 exponents (the last, of
+	// infinities and NaN, is never used; it lets an exponent index acc
+	// without a bounds check).
+	exponents = 2048
 )
 
 // fixed is an exact fixed-point accumulator with least significant bit of
@@ -39,37 +54,26 @@ type fixed struct {
 	lsb  int
 }
 
-// addSum adds (or subtracts, if neg) m·2^pos for m < 2^53: at most 85
-// bits after the shift within a limb, so three limbs.
-func (f *fixed) addSum(m uint64, pos int, neg bool) {
-	b := pos - f.lsb
-	k := b / limbBits
-	r := uint(b % limbBits)
-	v0 := m << r
-	var msk int64 // 0 to add, −1 to subtract: (c ^ msk) − msk = ±c
-	if neg {
-		msk = -1
-	}
-	l := f.limb[k : k+3 : k+3]
-	l[0] += (int64(v0&limbMask) ^ msk) - msk
-	l[1] += (int64(v0>>limbBits) ^ msk) - msk
-	l[2] += (int64(m>>(64-r)) ^ msk) - msk
-}
-
-// addSq adds the 128-bit integer hi·2^64 + lo, of at most 106 bits, times
-// 2^pos: at most 137 bits after the shift within a limb, so five limbs.
-func (f *fixed) addSq(hi, lo uint64, pos int) {
+// add adds (or subtracts, if neg) the 128-bit integer hi·2^64 + lo times
+// 2^pos: at most 159 bits after the shift within a limb, so five limbs,
+// each given less than 2^32.
+func (f *fixed) add(hi, lo uint64, pos int, neg bool) {
 	b := pos - f.lsb
 	k := b / limbBits
 	r := uint(b % limbBits)
 	v0 := lo << r
 	v1 := hi<<r | lo>>(64-r)
+	v2 := hi >> (64 - r)
+	var msk int64 // 0 to add, −1 to subtract: (c ^ msk) − msk = ±c
+	if neg {
+		msk = -1
+	}
 	l := f.limb[k : k+5 : k+5]
-	l[0] += int64(v0 & limbMask)
-	l[1] += int64(v0 >> limbBits)
-	l[2] += int64(v1 & limbMask)
-	l[3] += int64(v1 >> limbBits)
-	l[4] += int64(hi >> (64 - r))
+	l[0] += (int64(v0&limbMask) ^ msk) - msk
+	l[1] += (int64(v0>>limbBits) ^ msk) - msk
+	l[2] += (int64(v1&limbMask) ^ msk) - msk
+	l[3] += (int64(v1>>limbBits) ^ msk) - msk
+	l[4] += (int64(v2) ^ msk) - msk
 }
 
 // merge adds the value of o to f; both have the same lsb and length.
@@ -101,16 +105,32 @@ func (f *fixed) int() *big.Int {
 	return x
 }
 
-// split returns the integer significand m < 2^53 and exponent e with
-// |x| = m·2^e, for finite x.
-func split(x float64) (m uint64, e int) {
-	u := math.Float64bits(x)
-	be := int(u >> 52 & 0x7ff)
-	m = u & (1<<52 - 1)
-	if be == 0 {
-		return m, sumLSB
+// expAcc accumulates the values of one biased exponent be since the last
+// fold: the sum of their signed integer significands (two's complement,
+// 128 bits) and the sum of the squares of the significands. The values are
+// significand·2^(max(be, 1) − 1075).
+type expAcc struct {
+	sumLo, sumHi uint64
+	sqLo, sqHi   uint64
+}
+
+// addBits adds the finite float64 whose bits are u to the accumulator of
+// its exponent.
+func addBits(acc *[exponents]expAcc, u uint64) {
+	be := u >> 52 & 0x7ff
+	m := u&(1<<52-1) | 1<<52
+	if be == 0 { // subnormal or zero: no implicit bit
+		m = u & (1<<52 - 1)
 	}
-	return m | 1<<52, be - 1075
+	a := &acc[be]
+	neg := int64(u) >> 63 // −1 for a negative value
+	sm := uint64((int64(m) ^ neg) - neg)
+	var c uint64
+	a.sumLo, c = bits.Add64(a.sumLo, sm, 0)
+	a.sumHi += uint64(neg) + c
+	hi, lo := bits.Mul64(m, m)
+	a.sqLo, c = bits.Add64(a.sqLo, lo, 0)
+	a.sqHi += hi + c
 }
 
 // moments accumulates the exact count, sum and sum of squares of the
@@ -120,13 +140,16 @@ type moments struct {
 	posInf  int64
 	negInf  int64
 	sum, sq fixed
-	pending int // adds since the last carry propagation, as counted by merge
+	pending int // adds to the limbs since the last carry propagation, as counted by merge
+	acc     *[exponents]expAcc
+	accN    int // at least the number of values added to acc since the last fold; below accLimit
 }
 
 func newMoments() *moments {
 	return &moments{
 		sum: fixed{limb: make([]int64, sumLimbs), lsb: sumLSB},
 		sq:  fixed{limb: make([]int64, sqLimbs), lsb: sqLSB},
+		acc: new([exponents]expAcc),
 	}
 }
 
@@ -144,13 +167,52 @@ func (m *moments) add(x float64) {
 	if x == 0 {
 		return
 	}
-	mant, e := split(x)
-	m.sum.addSum(mant, e, x < 0)
-	hi, lo := bits.Mul64(mant, mant)
-	m.sq.addSq(hi, lo, 2*e)
-	m.pending++
-	if m.pending >= carryEvery {
-		m.normalize()
+	addBits(m.acc, math.Float64bits(x))
+	m.counted(1)
+}
+
+// room returns how many finite values may go to the exponent accumulators
+// (by addBits) before the next call of counted; at least 1.
+func (m *moments) room() int { return accLimit - m.accN }
+
+// counted records k ≤ room() values added by addBits, folding the
+// accumulators into the limbs when they are full.
+func (m *moments) counted(k int) {
+	m.accN += k
+	if m.accN >= accLimit {
+		m.fold()
+	}
+}
+
+// fold empties the exponent accumulators into the limbs.
+func (m *moments) fold() {
+	m.addAcc(m.acc)
+	clear(m.acc[:])
+	m.accN = 0
+}
+
+// addAcc adds the values held in the exponent accumulators acc to the
+// limbs of m; acc is not changed.
+func (m *moments) addAcc(acc *[exponents]expAcc) {
+	for be := range acc {
+		a := &acc[be]
+		if a.sqLo|a.sqHi == 0 { // no value since the last fold
+			continue
+		}
+		e := max(be, 1) - 1075
+		lo, hi := a.sumLo, a.sumHi
+		neg := int64(hi) < 0
+		if neg { // magnitude of the two's-complement sum
+			var b uint64
+			lo, b = bits.Sub64(0, lo, 0)
+			hi = -hi - b
+		}
+		m.sum.add(hi, lo, e, neg)
+		m.sq.add(a.sqHi, a.sqLo, 2*e, false)
+		m.pending++
+		if m.pending >= carryEvery {
+			m.normalize()
+		}
 	}
 }
 
@@ -160,7 +222,7 @@ func (m *moments) normalize() {
 	m.pending = 0
 }
 
-// merge adds the values of o to m.
+// merge adds the values of o to m; o is not changed.
 func (m *moments) merge(o *moments) {
 	m.n += o.n
 	m.posInf += o.posInf
@@ -172,6 +234,7 @@ func (m *moments) merge(o *moments) {
 	if m.pending >= carryEvery {
 		m.normalize()
 	}
+	m.addAcc(o.acc)
 }
 
 // meanSD returns the correctly rounded mean and the sample standard
@@ -191,6 +254,7 @@ func (m *moments) meanSD() (mean, sd float64) {
 	case m.negInf > 0:
 		return math.Inf(-1), math.NaN()
 	}
+	m.fold()
 	s1 := m.sum.int()
 	// mean = s1·2^sumLSB / n
 	den := new(big.Int).Lsh(big.NewInt(m.n), -sumLSB)

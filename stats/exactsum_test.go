@@ -134,17 +134,19 @@ func TestMomentsSpecial(t *testing.T) {
 	}
 }
 
-// TestFixedCarry checks that carry propagation (normally every 2^30 adds)
-// and merging leave the value unchanged: forcing a propagation before
-// every add must give the same integer.
+// TestFixedCarry checks that carry propagation (normally every 2^30 adds
+// to the limbs), folding the exponent accumulators (normally every 2^21
+// values) and merging leave the value unchanged: folding and propagating
+// carries after every value must give the same integers.
 func TestFixedCarry(t *testing.T) {
 	t.Parallel()
 	x := wideFloats(2000, 4)
 	a, b, c := newMoments(), newMoments(), newMoments()
 	for i, v := range x {
 		a.add(v)
-		b.pending = carryEvery - 1 // propagate carries after this add
 		b.add(v)
+		b.pending = carryEvery - 1 // propagate carries at this fold
+		b.fold()
 		if i%2 == 0 {
 			c.add(v)
 		}
@@ -156,9 +158,43 @@ func TestFixedCarry(t *testing.T) {
 		}
 	}
 	c.merge(d)
+	a.fold()
 	for _, m := range []*moments{b, c} {
+		m.fold()
 		if m.sum.int().Cmp(a.sum.int()) != 0 || m.sq.int().Cmp(a.sq.int()) != 0 || m.n != a.n {
 			t.Errorf("sums differ after carries or merge")
+		}
+	}
+}
+
+// TestMomentsAccumulatorBound adds 2·accLimit + 5 values of the largest
+// significand, 2^53 − 1, to one exponent accumulator, of each sign: the
+// sums must be exactly N·m and N·m² (math/big), which fails if accLimit
+// let the 128-bit accumulators overflow before a fold.
+func TestMomentsAccumulatorBound(t *testing.T) {
+	t.Parallel()
+	const n = 2*accLimit + 5
+	top := math.Nextafter(2, 0) // (2^53 − 1)·2^−52
+	for _, v := range []float64{top, -top} {
+		m := newMoments()
+		for range n {
+			m.add(v)
+		}
+		m.fold()
+		sig := big.NewInt(1<<53 - 1)
+		if v < 0 {
+			sig.Neg(sig)
+		}
+		// Sum = n·sig·2^−52 = I·2^sumLSB, so I = n·sig·2^(−52−sumLSB).
+		want := new(big.Int).Mul(big.NewInt(n), sig)
+		want.Lsh(want, uint(-52-sumLSB))
+		if m.sum.int().Cmp(want) != 0 {
+			t.Errorf("sum of %d × %v is not exact", n, v)
+		}
+		want.Mul(big.NewInt(n), new(big.Int).Mul(sig, sig))
+		want.Lsh(want, uint(-104-sqLSB))
+		if m.sq.int().Cmp(want) != 0 {
+			t.Errorf("sum of squares of %d × %v is not exact", n, v)
 		}
 	}
 }

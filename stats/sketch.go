@@ -3,6 +3,7 @@ package stats
 import (
 	"fmt"
 	"math"
+	"math/bits"
 	"sync"
 )
 
@@ -34,12 +35,14 @@ const DefaultRelErr = 1e-4
 //
 // Memory: 8 bytes per bin, about ln(max/min)/(2α) bins per sign for the
 // range of magnitudes seen (92 kB per decade at α = 10⁻⁴), plus growth
-// slack (typically 25 %, at most 100 %) and 1.7 kB of sums; Bins reports
-// the count. The look-up tables of a resolution (about 150 kB at
+// slack (typically 25 %, at most 100 %) and 66 kB of sums (1.7 kB of
+// limbs and 64 kB of accumulators, one per binary exponent); Bins reports
+// the count. The look-up tables of a resolution (about 115 kB at
 // α = 10⁻⁴) are built once and shared by all sketches.
 //
 // Add costs a table look-up on the bits of the value (no logarithm) and a
-// few integer additions. A Sketch is not safe for concurrent use; give
+// few integer additions; AddSlice does the same work in one loop, without
+// a call per value. A Sketch is not safe for concurrent use; give
 // each goroutine its own and merge them. The zero Sketch is not usable;
 // use NewSketch.
 type Sketch struct {
@@ -115,11 +118,81 @@ func (s *Sketch) Add(x float64) {
 	s.mom.add(x)
 }
 
-// AddSlice adds every value of xs.
+// AddSlice adds every value of xs, as Add would one by one.
 func (s *Sketch) AddSlice(xs []float64) {
-	for _, x := range xs {
-		s.Add(x)
+	for len(xs) > 0 {
+		k := min(len(xs), s.mom.room())
+		s.addRun(xs[:k])
+		s.mom.counted(k)
+		xs = xs[k:]
 	}
+}
+
+// addRun adds xs, at most s.mom.room() values, to everything but the count
+// of the moments' accumulators, which the caller records. It is Add with
+// the extremes held in locals and the work for a normal value — bin look-up
+// (binTable.index), bin count (bins.inc) and sums (addBits) — written out;
+// zeros, subnormals, infinities and NaNs go through Add, and so does every
+// value for resolutions finer than 7.6·10⁻⁶, whose bin look-up walks.
+func (s *Sketch) addRun(xs []float64) {
+	t := s.tab
+	if t.multi {
+		for _, x := range xs {
+			s.Add(x)
+		}
+		return
+	}
+	lo, hi := s.min, s.max
+	acc := s.mom.acc
+	cell, frac, shift, k := t.cell, t.frac, 52-t.bits, t.k
+	before := s.n + s.nan // counts of the values that go through Add
+	for _, x := range xs {
+		u := math.Float64bits(x)
+		a := u &^ (1 << 63) // bits of |x|
+		// Below 2^−1022 (a − 2^52 wraps), ±Inf or NaN:
+		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 {
+			s.min, s.max = lo, hi
+			s.Add(x) // counts a subnormal once more towards the next fold: it only comes sooner
+			lo, hi = s.min, s.max
+			continue
+		}
+		if x < lo {
+			lo = x
+		}
+		if x > hi {
+			hi = x
+		}
+		// Bin: as binTable.index for a normal value.
+		f := a & fracMask
+		j := int(cell[f>>shift])
+		j += int((frac[j+1] - 1 - f) >> 63)
+		i := (int(a>>52)-1023)*k + j
+		b := &s.pos
+		if u>>63 != 0 {
+			b = &s.neg
+		}
+		if c := i - b.off; uint(c) < uint(len(b.counts)) {
+			b.counts[c]++
+		} else {
+			b.inc(i)
+		}
+		// Sums: as addBits for a normal value, whose significand has its
+		// implicit bit.
+		m := f | 1<<52
+		e := &acc[a>>52]
+		neg := int64(u) >> 63 // −1 for a negative value
+		sm := uint64((int64(m) ^ neg) - neg)
+		var c uint64
+		e.sumLo, c = bits.Add64(e.sumLo, sm, 0)
+		e.sumHi += uint64(neg) + c
+		sh, sl := bits.Mul64(m, m)
+		e.sqLo, c = bits.Add64(e.sqLo, sl, 0)
+		e.sqHi += sh + c
+	}
+	s.min, s.max = lo, hi
+	normal := uint64(len(xs)) - (s.n + s.nan - before)
+	s.n += normal
+	s.mom.n += int64(normal)
 }
 
 // Merge adds the values summarised by o to s; o is not changed. The
@@ -289,8 +362,8 @@ func (b *bins) merge(o *bins) {
 // is within (γ−1)/(γ+1) relative error of every value in it.
 type binTable struct {
 	k      int
-	bits   uint      // mantissa bits indexing cell
-	cell   []uint64  // cell[c]: offset of the next bin end in cell c << 20 | j (see newBinTable)
+	bits   uint      // fraction bits indexing cell
+	cell   []uint32  // cell[c]: bin of the first mantissa of cell c (see newBinTable)
 	multi  bool      // whether a cell may hold more than one bin end
 	bound  []float64 // k+1 bin ends in [1, 2]
 	frac   []uint64  // fraction bits of bound[0 … k−1], then 2^52 for bound[k] = 2
@@ -328,21 +401,19 @@ func newBinTable(k int) *binTable {
 		t.frac[j] = math.Float64bits(t.bound[j]) & fracMask
 	}
 	t.frac[k] = 1 << 52
-	// Cells are the 2^bits equal slices of the fraction bits. With enough
-	// bits a cell is narrower than the narrowest bin and holds at most one
-	// bin end: cell[c] packs the bin j of the cell's first mantissa (20
-	// bits; k < 2^19 for relErr ≥ 1e-6) and above it the offset within the
-	// cell of the end of bin j, or 2^44−1 if bin j extends past the cell (a
-	// cell spans at most 2^43 fraction units, as bits ≥ 9), so one look-up
-	// and one comparison find the bin. Past 16 bits (relErr < 7.6e-6)
-	// cells may hold several ends and index walks frac from j.
+	// Cells are the 2^bits equal slices of the fraction bits; cell[c] is
+	// the bin j of the cell's first mantissa (k < 2^19 for relErr ≥ 1e-6).
+	// With enough bits a cell is narrower than the narrowest bin and holds
+	// at most one bin end, so the look-up and one comparison with the end
+	// of bin j find the bin. Past 16 bits (relErr < 7.6e-6) cells may hold
+	// several ends and index walks frac from j.
 	minWidth := t.bound[1] - t.bound[0]
 	t.bits = 9
 	for t.bits < 16 && math.Ldexp(1, -int(t.bits)) >= minWidth {
 		t.bits++
 	}
 	t.multi = math.Ldexp(1, -int(t.bits)) >= minWidth
-	t.cell = make([]uint64, 1<<t.bits)
+	t.cell = make([]uint32, 1<<t.bits)
 	width := uint64(1) << (52 - t.bits)
 	j := 0
 	for c := range t.cell {
@@ -350,11 +421,7 @@ func newBinTable(k int) *binTable {
 		for t.frac[j+1] <= start {
 			j++
 		}
-		off := uint64(1<<44 - 1)
-		if end := t.frac[j+1]; end < start+width {
-			off = end - start
-		}
-		t.cell[c] = off<<20 | uint64(j)
+		t.cell[c] = uint32(j)
 	}
 	return t
 }
@@ -371,16 +438,16 @@ func (t *binTable) index(x float64) int {
 	}
 	e -= 1023
 	f := u & fracMask
-	ent := t.cell[f>>(52-t.bits)]
-	j := int(ent & (1<<20 - 1))
+	j := int(t.cell[f>>(52-t.bits)])
+	// The mantissas in [1, 2) share their exponent, so comparing fraction
+	// bits as integers compares them as numbers. f < 2^52 ≤ frac[j+1] + 2^52,
+	// so the difference is negative, its top bit set, just when
+	// f ≥ frac[j+1]: one step up without a branch.
+	j += int((t.frac[j+1] - 1 - f) >> 63)
 	if t.multi {
-		// The mantissas in [1, 2) share their exponent, so comparing
-		// fraction bits as integers compares them as numbers.
 		for f >= t.frac[j+1] {
 			j++
 		}
-	} else if f&(1<<(52-t.bits)-1) >= ent>>20 {
-		j++
 	}
 	return e*t.k + j
 }
