@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"image"
 	"image/png"
@@ -13,6 +14,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 
@@ -42,21 +44,34 @@ func chromium(t *testing.T) string {
 }
 
 // headless runs Chromium on the page at path with extra flags and returns
-// its standard output.
+// its standard output. A browser that crashes (killed by a signal, as
+// Chromium sometimes is on a loaded machine) is started once more; a
+// second crash fails the test.
 func headless(t *testing.T, browser, path string, flags ...string) []byte {
 	t.Helper()
-	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
-	defer cancel()
-	args := append([]string{"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-		"--disable-background-networking", "--disable-component-update", "--disable-sync",
-		"--user-data-dir=" + t.TempDir()}, flags...)
-	cmd := exec.CommandContext(ctx, browser, append(args, "file://"+path)...)
-	var stdout, stderr bytes.Buffer
-	cmd.Stdout, cmd.Stderr = &stdout, &stderr
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("chromium: %v\n%s", err, stderr.String())
+	var err error
+	var stderr bytes.Buffer
+	for try := 0; try < 2; try++ {
+		ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
+		args := append([]string{"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+			"--disable-background-networking", "--disable-component-update", "--disable-sync",
+			"--disable-dev-shm-usage", "--user-data-dir=" + t.TempDir()}, flags...)
+		cmd := exec.CommandContext(ctx, browser, append(args, "file://"+path)...)
+		var stdout bytes.Buffer
+		stderr.Reset()
+		cmd.Stdout, cmd.Stderr = &stdout, &stderr
+		err = cmd.Run()
+		cancel()
+		if err == nil {
+			return stdout.Bytes()
+		}
+		var ee *exec.ExitError
+		if !errors.As(err, &ee) || !ee.ProcessState.Sys().(syscall.WaitStatus).Signaled() {
+			break
+		}
 	}
-	return stdout.Bytes()
+	t.Fatalf("chromium: %v\n%s", err, stderr.String())
+	return nil
 }
 
 // probeScripts are added to a copy of a page: the first records every
