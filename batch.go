@@ -137,6 +137,11 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 				wk.out[j][i] *= inv
 			}
 		}
+		if sp.Offset != 0 {
+			for i := range wk.out[j] {
+				wk.out[j][i] -= sp.Offset
+			}
+		}
 		if i := firstNonFinite(wk.out[j]); i >= 0 {
 			return n, 0, wk.trialError(start, i, j)
 		}

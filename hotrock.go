@@ -3,9 +3,14 @@ package rockheat
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"rockheat/heatmodel"
+)
+
+// Ranges of the fracture model's inputs.
+var (
+	spacingRange = Ranges{Domain{Lo: 0, Hi: 10000, LoOpen: true}, Domain{Lo: 5, Hi: 500}}     // m
+	pathRange    = Ranges{Domain{Lo: 0, Hi: 100000, LoOpen: true}, Domain{Lo: 100, Hi: 3000}} // m; well spacings of stimulated systems
 )
 
 // MaxReportYears bounds the report years of a hot-rock run: each is an
@@ -27,10 +32,8 @@ type HotRock struct {
 
 	Area        Quantity // m² (km²), > 0, of the stimulated or developed volume
 	SurfaceTemp Quantity // K (°C), mean surface temperature
-	// Gradient (K/m (°C/km), > 0) is the geothermal gradient, unless
-	// Layers give a piecewise geotherm.
-	Gradient Quantity
-	Layers   []Layer
+	// Geotherm is the rock's temperature below the surface.
+	Geotherm
 	// MinUsefulTemp (K (°C)) is the minimum useful rock temperature, the
 	// water's injection temperature.
 	MinUsefulTemp     Quantity
@@ -51,14 +54,13 @@ type HotRock struct {
 	// ReportYears are the times, years ≥ 0 and increasing, at which to
 	// report the declining thermal power; nil means DefaultReportYears.
 	ReportYears []float64
-}
 
-// Layer is one layer of a piecewise geotherm: from the bottom of the layer
-// above (or the surface) down to Bottom (m (km), fixed) the rock
-// temperature rises at Gradient (K/m (°C/km), fixed). The last layer's
-// gradient continues below its bottom.
-type Layer struct {
-	Bottom, Gradient Quantity
+	// Decline is the model of the drawdown: the well-mixed exponential
+	// decline, or water through parallel fractures, FractureSpacing
+	// apart (m, > 0), each with a FlowPath (m, > 0) from injector to
+	// producer, in rock of RockConductivity (W/(m·K)).
+	Decline                                     heatmodel.Decline
+	FractureSpacing, FlowPath, RockConductivity Quantity
 }
 
 // Kind returns heatmodel.KindHotRock.
@@ -78,13 +80,21 @@ func (m *HotRock) fields(e *hotRockEval) []Field {
 	fs := []Field{
 		required(&m.Area, &h.Area, "area", SquareKilometre, "area of the stimulated or developed volume", areaRange),
 		required(&m.SurfaceTemp, &h.SurfaceTemp, "surface_temp", Celsius, "mean surface temperature", surfaceTempRange),
-		alternative(required(&m.Gradient, &h.Gradient, "gradient", CelsiusPerKm, "geothermal gradient", gradientRange)),
+	}
+	fs = append(fs, m.Geotherm.fields(&e.geo)...)
+	fs = append(fs,
 		required(&m.MinUsefulTemp, &h.MinTemp, "min_useful_temp", Celsius, "minimum useful rock temperature", minTempRange),
 		defaulted(required(&m.TopDepth, &h.TopDepth, "top_depth", Kilometre, "shallowest depth to draw heat from", topDepthRange), 0),
 		required(&m.MaxDepth, &h.MaxDepth, "max_depth", Kilometre, "maximum (drilling) depth", maxDepthRange),
 		required(&m.RockDensity, &h.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", rockDensityRange),
 		required(&m.RockHeatCapacity, &h.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", rockHeatRange),
 		required(&m.FlowPerArea, &h.Flux, "flow_per_area", FlowPerKm2, "circulated water flow per unit area", flowRange),
+	)
+	if m.Decline == heatmodel.DeclineFractures {
+		fs = append(fs,
+			required(&m.FractureSpacing, &h.FractureSpacing, "fracture_spacing", Metre, "spacing of the parallel fractures", spacingRange),
+			required(&m.FlowPath, &h.FlowPath, "flow_path", Metre, "flow path from injector to producer along a fracture", pathRange),
+			required(&m.RockConductivity, &h.RockConductivity, "rock_conductivity", WattPerMetreK, "rock thermal conductivity", conductRange))
 	}
 	switch m.Fluid {
 	case heatmodel.FluidFixed:
@@ -149,33 +159,10 @@ func (m *HotRock) newEvaluator() evaluator {
 	for _, y := range m.reportYears() {
 		e.h.ReportTimes = append(e.h.ReportTimes, y*year)
 	}
-	if len(m.Layers) > 0 {
-		p, err := heatmodel.NewProfile(siLayers(m.Layers))
-		if err != nil {
-			panic("rockheat: layers passed the checks but not heatmodel.NewProfile: " + err.Error())
-		}
-		e.h.Geotherm = p
-	}
+	e.h.Decline = m.Decline
+	e.freeze = m.Geotherm.prepare(&e.geo)
 	e.dst = dsts(m.fields(e))
 	return e
-}
-
-// siLayers returns layers as heatmodel layers, in SI units.
-func siLayers(layers []Layer) []heatmodel.Layer {
-	hl := make([]heatmodel.Layer, len(layers))
-	for i, l := range layers {
-		hl[i] = heatmodel.Layer{Bottom: layerUnit(l.Bottom, Kilometre).ToSI(l.Bottom.Dist.Quantile(0.5)),
-			Gradient: layerUnit(l.Gradient, CelsiusPerKm).ToSI(l.Gradient.Dist.Quantile(0.5))}
-	}
-	return hl
-}
-
-// layerUnit returns the unit of a layer quantity q whose own unit is u.
-func layerUnit(q Quantity, u Unit) Unit {
-	if q.Unit == (Unit{}) {
-		return u
-	}
-	return q.Unit
 }
 
 // hotRockEval evaluates the hot-rock model on one goroutine.
@@ -183,12 +170,28 @@ type hotRockEval struct {
 	fluid                    heatmodel.FluidSource
 	years                    int
 	h                        heatmodel.HotRock
+	geo                      heatmodel.GeothermColumns
+	freeze                   bool // build the one geotherm of fixed parameters on the first batch
 	fluidTemp, fluidPressure heatmodel.Column
 	evalBase
 }
 
 func (e *hotRockEval) evaluate(n int, out [][]float64) (int, error) {
+	if e.freeze {
+		if err := e.geo.Freeze(); err != nil {
+			return 0, err
+		}
+		e.freeze = false
+	}
 	h := e.h
+	switch {
+	case e.geo.Mode == heatmodel.GeothermGradient:
+		h.Gradient = e.geo.Gradient // one gradient per trial, as before geotherms had columns
+	case !e.geo.Fixed.IsZero():
+		h.Geotherm = e.geo.Fixed
+	default:
+		h.Columns = &e.geo
+	}
 	if e.fluid == heatmodel.FluidIF97 {
 		var err error
 		if h.WaterDensity, h.WaterHeatCapacity, err = e.fs.LiquidProperties(n, e.fluidPressure, e.fluidTemp); err != nil {
@@ -202,80 +205,38 @@ func (e *hotRockEval) evaluate(n int, out [][]float64) (int, error) {
 	}), nil
 }
 
-// check reports a geotherm given twice or not at all, bad layers and
-// report years, and a column in which no
-// trial can hold useful heat.
+// check reports a geotherm given twice or not at all, bad report years,
+// a fracture block that cannot hold its fractures, and a column in which
+// no trial can hold useful heat.
 func (m *HotRock) check(p *problems, c *checked) {
-	gf := fieldOf(c.fields, &m.Gradient)
-	switch {
-	case len(m.Layers) > 0 && m.Gradient.Given():
-		p.input(gf.label(), "is not used when layers give the geotherm; remove it or the layers")
-	case len(m.Layers) == 0 && !m.Gradient.Given():
-		p.add(&InputError{Input: gf.label(), Missing: true, Msg: fmt.Sprintf("missing: the %s (%s) is required", gf.Doc, gf.unit().Symbol)})
-	}
 	m.checkYears(p)
-	layersOK := m.checkLayers(p)
-	if layersOK {
-		m.checkColumn(p, c)
+	mode, ok := m.Geotherm.check(p, c, fieldOf(c.fields, &m.Gradient).label())
+	if m.Decline == heatmodel.DeclineFractures {
+		checkFractures(p, c, &m.Area, &m.FractureSpacing, &m.FlowPath)
+	}
+	if ok {
+		m.checkColumn(p, c, mode)
 	}
 }
 
-// checkLayers checks the layers of a piecewise geotherm, and reports
-// whether they make one.
-func (m *HotRock) checkLayers(p *problems) bool {
-	if len(m.Layers) == 0 {
-		return true
+// checkFractures reports a block that cannot hold one fracture, or whose
+// flow path is longer than the block: judged on the smallest area and the
+// longest path and widest spacing any trial can meet.
+func checkFractures(p *problems, c *checked, area, spacing, path *Quantity) {
+	aLo, _, ok1 := c.span(area)
+	_, sHi, ok2 := c.span(spacing)
+	_, lHi, ok3 := c.span(path)
+	if !ok1 || !ok2 || !ok3 {
+		return
 	}
-	ok := true
-	for i, l := range m.Layers {
-		for _, q := range []struct {
-			q    Quantity
-			what string
-		}{{l.Bottom, "bottom"}, {l.Gradient, "gradient"}} {
-			switch {
-			case !q.q.Given():
-				p.setting("layers", i+1, "each layer needs its %s; give both the bottom depth and the gradient", q.what)
-				ok = false
-			case !q.q.IsFixed():
-				p.setting("layers", i+1, "the layer's %s must be a single value", q.what)
-				ok = false
-			}
-		}
+	a := SquareKilometre.ToSI(aLo) // m²
+	name := fieldOf(c.fields, path).label()
+	switch {
+	case lHi > math.Sqrt(a):
+		p.input(name, "reaches %g m, longer than the side of the smallest block, √(%g km²) = %.4g m: the flow path runs within the block; shorten it or enlarge the area", lHi, aLo, math.Sqrt(a))
+	case a < lHi*sHi:
+		p.input(name, "with a spacing of up to %g m, a block of %g km² holds fewer than one fracture of %g m; narrow the spacing or enlarge the area", sHi, aLo, lHi)
 	}
-	if !ok {
-		return false
-	}
-	if _, err := heatmodel.NewProfile(siLayers(m.Layers)); err != nil {
-		for _, e := range unjoin(err) {
-			msg := strings.TrimPrefix(e.Error(), "heatmodel: ")
-			msg = strings.NewReplacer(" m ", " km ", " m:", " km:", "K/m", "°C/km").Replace(kmText(msg))
-			p.setting("layers", 0, "%s", msg)
-		}
-		return false
-	}
-	return true
-}
-
-// kmText rewrites the metre and K/m figures of a heatmodel layer message
-// in km and °C/km.
-func kmText(msg string) string {
-	var out []string
-	words := strings.Fields(msg)
-	for i, w := range words {
-		if i+1 < len(words) {
-			var v float64
-			if _, err := fmt.Sscan(w, &v); err == nil {
-				switch strings.TrimRight(words[i+1], ":,;") {
-				case "m":
-					w = fmt.Sprintf("%g", v/1000)
-				case "K/m":
-					w = fmt.Sprintf("%g", v*1000)
-				}
-			}
-		}
-		out = append(out, w)
-	}
-	return strings.Join(out, " ")
 }
 
 // checkYears checks the report years.
@@ -303,27 +264,22 @@ func (m *HotRock) checkYears(p *problems) {
 // checkColumn reports a column in which no trial can hold useful heat:
 // the minimum useful temperature is reached, even in the hottest case,
 // only below the maximum depth.
-func (m *HotRock) checkColumn(p *problems, c *checked) {
+func (m *HotRock) checkColumn(p *problems, c *checked, mode heatmodel.GeothermMode) {
 	_, tsHi, ok1 := c.span(&m.SurfaceTemp)
 	tmLo, _, ok2 := c.span(&m.MinUsefulTemp)
 	topLo, _, ok3 := c.span(&m.TopDepth)
 	_, zMax, ok4 := c.span(&m.MaxDepth)
-	if !ok1 || !ok2 || !ok3 || !ok4 {
+	prof, ok5 := m.Geotherm.hottest(c, mode)
+	if !ok1 || !ok2 || !ok3 || !ok4 || !ok5 {
 		return
-	}
-	var prof heatmodel.Profile
-	if len(m.Layers) > 0 {
-		prof, _ = heatmodel.NewProfile(siLayers(m.Layers))
-	} else {
-		_, gHi, ok := c.span(&m.Gradient)
-		if !ok {
-			return
-		}
-		prof = heatmodel.UniformProfile(CelsiusPerKm.ToSI(gHi))
 	}
 	z1 := math.Max(prof.Depth(tmLo-tsHi)/1000, topLo) // km, shallowest possible
 	if z1 >= zMax {
-		p.input(fieldOf(c.fields, &m.MaxDepth).label(), "reaches at most %g km, but even the hottest trial reaches %s only at %.3g km: no trial has useful heat; drill deeper, or lower %s",
-			zMax, fieldOf(c.fields, &m.MinUsefulTemp).Name(), z1, fieldOf(c.fields, &m.MinUsefulTemp).Name())
+		where := fmt.Sprintf("at %.3g km", z1)
+		if math.IsInf(z1, 1) {
+			where = "at no depth (the geotherm peaks below it)"
+		}
+		p.input(fieldOf(c.fields, &m.MaxDepth).label(), "reaches at most %g km, but even the hottest trial reaches %s only %s: no trial has useful heat; drill deeper, lower %s, or check the geotherm",
+			zMax, fieldOf(c.fields, &m.MinUsefulTemp).Name(), where, fieldOf(c.fields, &m.MinUsefulTemp).Name())
 	}
 }

@@ -1,6 +1,9 @@
 package rockheat
 
 import (
+	"slices"
+	"strings"
+
 	"rockheat/heatmodel"
 )
 
@@ -64,7 +67,10 @@ type OutputSpec struct {
 	Name  string  // JSON key, e.g. "heat_in_place"
 	Unit  string  // unit of reported values: "J", "MWth", "MWe", "years"
 	Doc   string  // a few words for the text report
-	Scale float64 // reported value = SI value / Scale
+	Scale float64 // reported value = SI value / Scale − Offset
+	// Offset shifts the reported value (celsiusZero for a temperature in
+	// °C).
+	Offset float64
 	// Group, if not empty, gathers outputs reported as one list, each at
 	// its Year (DeclineGroup: the hot-rock power at each report year).
 	Group string
@@ -72,6 +78,15 @@ type OutputSpec struct {
 	// DependsOn lists the Field.Base names of the inputs the output's
 	// formula uses: only they are ranked in its sensitivity.
 	DependsOn []string
+}
+
+// dependsOn reports whether the output of s depends on the input of base
+// ("layers" stands for every layer's inputs).
+func (s OutputSpec) dependsOn(base string) bool {
+	if strings.HasPrefix(base, "layers[") {
+		base = "layers"
+	}
+	return slices.Contains(s.DependsOn, base)
 }
 
 // uses returns the union of lists of input bases.

@@ -20,9 +20,16 @@ type Reservoir struct {
 	// UtilizationEfficiency.
 	Conversion heatmodel.Conversion
 
-	Area              Quantity // m² (km²), > 0
-	Thickness         Quantity // m, > 0
-	ReservoirTemp     Quantity // K (°C), mean reservoir temperature
+	Area      Quantity // m² (km²), > 0
+	Thickness Quantity // m, > 0
+	// ReservoirTemp (K (°C)) is the mean reservoir temperature; or leave
+	// it out and give the SurfaceTemp (K (°C)), the TopDepth (m) of the
+	// reservoir and the Geotherm: the reservoir's temperature is then the
+	// exact mean of the geotherm over the reservoir's thickness.
+	ReservoirTemp Quantity
+	SurfaceTemp   Quantity
+	TopDepth      Quantity
+	Geotherm
 	ReferenceTemp     Quantity // K (°C), reference temperature; default 15 °C
 	Porosity          Quantity // fraction, [0, 1)
 	RockDensity       Quantity // kg/m³, > 0
@@ -58,13 +65,18 @@ func (m *Reservoir) fields(e *reservoirEval) []Field {
 	fs := []Field{
 		required(&m.Area, &r.Area, "area", SquareKilometre, "reservoir area", areaRange),
 		required(&m.Thickness, &r.Thickness, "thickness", Metre, "reservoir thickness", thicknessRange),
-		required(&m.ReservoirTemp, &r.ReservoirTemp, "reservoir_temp", Celsius, "mean reservoir temperature", m.tempRange()),
+		alternative(required(&m.ReservoirTemp, &r.ReservoirTemp, "reservoir_temp", Celsius, "mean reservoir temperature", m.tempRange())),
+		alternative(required(&m.SurfaceTemp, &e.surface, "surface_temp", Celsius, "mean surface temperature", surfaceTempRange)),
+		alternative(required(&m.TopDepth, &e.top, "top_depth", Metre, "depth of the reservoir's top", Ranges{Domain{Lo: 0, Hi: 20000}, Domain{Lo: 0, Hi: 10000}})),
+	}
+	fs = append(fs, m.Geotherm.fields(&e.geo)...)
+	fs = append(fs,
 		defaulted(required(&m.ReferenceTemp, &r.ReferenceTemp, "reference_temp", Celsius,
 			"reference (rejection, dead-state) temperature", refTempRange), 15),
 		required(&m.Porosity, &r.Porosity, "porosity", Fraction, "porosity", porosityRange),
 		required(&m.RockDensity, &r.RockDensity, "rock_density", KgPerCubicMetre, "rock (grain) density", rockDensityRange),
 		required(&m.RockHeatCapacity, &r.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", rockHeatRange),
-	}
+	)
 	switch m.Fluid {
 	case heatmodel.FluidFixed:
 		fs = append(fs,
@@ -99,8 +111,11 @@ func plantFields(cf *Quantity, cfDst *heatmodel.Column, life *Quantity, lifeDst 
 
 // The inputs each reservoir output depends on, by Field.Base.
 var (
-	reservoirHeat = []string{"area", "thickness", "reservoir_temp", "reference_temp", "porosity", "rock_density",
-		"rock_heat_capacity", "fluid_density", "fluid_heat_capacity", "reservoir_pressure", "depth"}
+	reservoirHeat = uses([]string{"area"}, reservoirTemp, []string{"reference_temp", "porosity", "rock_density",
+		"rock_heat_capacity", "fluid_density", "fluid_heat_capacity", "reservoir_pressure", "depth"})
+	// The reservoir's mean temperature: given, or from the geotherm.
+	reservoirTemp = []string{"thickness", "reservoir_temp", "surface_temp", "top_depth", "gradient", "heat_flow",
+		"conductivity", "heat_production", "layers"}
 	reservoirRecoverable = uses(reservoirHeat, []string{"recovery_factor"})
 	reservoirThermal     = uses(reservoirRecoverable, []string{"life"})
 	reservoirElectric    = uses(reservoirThermal, []string{"conversion_efficiency", "utilization_efficiency", "capacity_factor"})
@@ -108,19 +123,32 @@ var (
 	reservoirDensity = reservoirElectric[1:]
 )
 
-func (*Reservoir) outputs() []OutputSpec {
-	return []OutputSpec{
+func (m *Reservoir) outputs() []OutputSpec {
+	specs := []OutputSpec{
 		{Name: "heat_in_place", Unit: "J", Doc: "heat in place", Scale: 1, DependsOn: reservoirHeat},
 		{Name: "recoverable_heat", Unit: "J", Doc: "recoverable heat", Scale: 1, DependsOn: reservoirRecoverable},
 		{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega, DependsOn: reservoirThermal},
 		{Name: "electric_power", Unit: "MWe", Doc: "electric capacity", Scale: mega, DependsOn: reservoirElectric},
 		{Name: "power_density", Unit: "MWe/km²", Doc: "implied power density", Scale: 1, DependsOn: reservoirDensity},
 	}
+	if m.fromGeotherm() {
+		specs = append(specs, OutputSpec{Name: "reservoir_temp", Unit: "°C", Doc: "mean reservoir temperature, from the geotherm",
+			Scale: 1, Offset: celsiusZero, DependsOn: reservoirTemp})
+	}
+	return specs
 }
 
-// check reports a missing or doubled way to the IF97 fluid pressure, and
-// a reservoir that cannot hold heat.
+// fromGeotherm reports whether m takes its reservoir temperature from a
+// geotherm rather than as an input.
+func (m *Reservoir) fromGeotherm() bool { return !m.ReservoirTemp.Given() }
+
+// check reports a missing or doubled way to the IF97 fluid pressure, a
+// temperature given twice or not at all, and a reservoir that cannot hold
+// heat.
 func (m *Reservoir) check(p *problems, c *checked) {
+	if m.checkTemperature(p, c) {
+		checkHeat(p, c, &m.ReservoirTemp, &m.ReferenceTemp)
+	}
 	if m.Fluid == heatmodel.FluidIF97 {
 		pf, zf := fieldOf(c.fields, &m.ReservoirPressure), fieldOf(c.fields, &m.Depth)
 		switch hasP, hasZ := m.ReservoirPressure.Given(), m.Depth.Given(); {
@@ -131,7 +159,50 @@ func (m *Reservoir) check(p *problems, c *checked) {
 				Msg: "fluid \"if97\" needs the fluid pressure: give " + pf.label() + ", or " + zf.label() + " for a hydrostatic pressure"})
 		}
 	}
-	checkHeat(p, c, &m.ReservoirTemp, &m.ReferenceTemp)
+}
+
+// checkTemperature checks the reservoir temperature, given or from a
+// geotherm, and reports whether it is given as an input.
+func (m *Reservoir) checkTemperature(p *problems, c *checked) bool {
+	tf := fieldOf(c.fields, &m.ReservoirTemp)
+	geo := m.SurfaceTemp.Given() || m.TopDepth.Given() || m.Geotherm.given()
+	switch {
+	case m.ReservoirTemp.Given() && geo:
+		p.input(tf.label(), "give either the reservoir temperature or a geotherm (surface_temp_c, top_depth_m and a gradient, heat flow or [[layers]]), not both")
+		return false
+	case m.ReservoirTemp.Given():
+		return true
+	case !geo:
+		p.add(&InputError{Input: tf.label(), Missing: true, Msg: fmt.Sprintf("missing: the %s (%s) is required, or a geotherm: surface_temp_c, top_depth_m and gradient_c_per_km (or a heat flow, or [[layers]])", tf.Doc, tf.unit().Symbol)})
+		return false
+	}
+	for _, q := range []*Quantity{&m.SurfaceTemp, &m.TopDepth} {
+		if !q.Given() {
+			f := fieldOf(c.fields, q)
+			p.add(&InputError{Input: f.label(), Missing: true, Msg: fmt.Sprintf("missing: the %s (%s) is required with a geotherm", f.Doc, f.unit().Symbol)})
+		}
+	}
+	mode, ok := m.Geotherm.check(p, c, fieldOf(c.fields, &m.Gradient).label())
+	if ok && (m.Fluid == heatmodel.FluidIF97 || m.Conversion == heatmodel.ConversionExergy) {
+		m.checkGeothermIF97(p, c, mode)
+	}
+	return false
+}
+
+// checkGeothermIF97 reports a geotherm that can make the reservoir hotter
+// than IF97 region 1 holds, judged on its hottest case at the deepest
+// reservoir.
+func (m *Reservoir) checkGeothermIF97(p *problems, c *checked, mode heatmodel.GeothermMode) {
+	_, tsHi, ok1 := c.span(&m.SurfaceTemp)
+	_, topHi, ok2 := c.span(&m.TopDepth)
+	_, hHi, ok3 := c.span(&m.Thickness)
+	prof, ok4 := m.Geotherm.hottest(c, mode)
+	if !ok1 || !ok2 || !ok3 || !ok4 {
+		return
+	}
+	if t := tsHi + prof.MeanRise(topHi, topHi+hHi); t > if97MaxTempC {
+		p.input(fieldOf(c.fields, &m.TopDepth).label(), "with the hottest geotherm the reservoir reaches a mean of %.4g °C, above the %s; keep the deepest reservoir cooler", t, fmt.Sprintf("%d °C %s", if97MaxTempC, if97Why))
+	}
 }
 
 // checkHeat reports a reservoir in which no trial can hold heat: even the
@@ -184,7 +255,11 @@ func (m *Reservoir) depthRange() Ranges {
 }
 
 func (m *Reservoir) newEvaluator() evaluator {
-	e := &reservoirEval{fluid: m.Fluid, conversion: m.Conversion, hasPressure: m.ReservoirPressure.Given()}
+	e := &reservoirEval{fluid: m.Fluid, conversion: m.Conversion, hasPressure: m.ReservoirPressure.Given(),
+		geotherm: m.fromGeotherm()}
+	if e.geotherm {
+		e.freeze = m.Geotherm.prepare(&e.geo)
+	}
 	e.dst = dsts(m.fields(e))
 	return e
 }
@@ -195,12 +270,25 @@ type reservoirEval struct {
 	conversion                   heatmodel.Conversion
 	hasPressure                  bool
 	r                            heatmodel.Reservoir
+	geotherm                     bool // the temperature is the mean of geo over the reservoir
+	freeze                       bool // build the one geotherm of fixed parameters on the first batch
+	geo                          heatmodel.GeothermColumns
+	surface, top                 heatmodel.Column
+	temps                        []float64 // the batch's reservoir temperatures, K, from geo
 	pressure, depth, utilization heatmodel.Column
 	evalBase
 }
 
 func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	r := e.r // the columns set for this batch; fluid steps replace some
+	if e.geotherm {
+		tr, err := e.meanTemperatures(n, r.Thickness)
+		if err != nil {
+			return 0, err
+		}
+		r.ReservoirTemp = tr
+		copy(out[5][:n], tr.Values)
+	}
 	if e.fluid == heatmodel.FluidIF97 {
 		p := e.pressure
 		if !e.hasPressure {
@@ -221,6 +309,32 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	return r.Evaluate(n, heatmodel.ReservoirOutputs{
 		HeatInPlace: out[0], RecoverableHeat: out[1], ThermalPower: out[2], ElectricPower: out[3], PowerDensity: out[4],
 	}), nil
+}
+
+// meanTemperatures returns each trial's reservoir temperature, K: the
+// exact mean of its geotherm over the reservoir, Ts + MeanRise(top,
+// top + thickness) (the heat in place is linear in the temperature, so
+// the mean gives it exactly).
+func (e *reservoirEval) meanTemperatures(n int, thickness heatmodel.Column) (heatmodel.Column, error) {
+	if e.freeze {
+		if err := e.geo.Freeze(); err != nil {
+			return heatmodel.Column{}, err
+		}
+		e.freeze = false
+	}
+	if cap(e.temps) < n {
+		e.temps = make([]float64, n)
+	}
+	t := e.temps[:n]
+	for i := range t {
+		p, err := e.geo.At(i)
+		if err != nil {
+			return heatmodel.Column{}, err
+		}
+		top := e.top.At(i)
+		t[i] = e.surface.At(i) + p.MeanRise(top, top+thickness.At(i))
+	}
+	return heatmodel.Vary(t), nil
 }
 
 // fieldOf returns the field of quantity q.

@@ -2,7 +2,6 @@ package rockheat
 
 import (
 	"math"
-	"slices"
 
 	"rockheat/heatmodel"
 	"rockheat/stats"
@@ -34,7 +33,7 @@ func (r *run) sensitivity() []Sensitivity {
 		var names []string
 		var ranks [][]float64
 		for k, in := range r.sampled {
-			if slices.Contains(r.specs[j].DependsOn, in.Base) {
+			if r.specs[j].dependsOn(in.Base) {
 				names, ranks = append(names, r.names[k]), append(ranks, inRanks[k])
 			}
 		}
@@ -80,11 +79,11 @@ func (r *run) swings() (low, high [][]float64, base []float64) {
 	low, high = make([][]float64, len(r.specs)), make([][]float64, len(r.specs))
 	base = make([]float64, len(r.specs))
 	for j, sp := range r.specs {
-		base[j] = out[j][n-1] / sp.Scale
+		base[j] = out[j][n-1]/sp.Scale - sp.Offset
 		low[j], high[j] = make([]float64, k), make([]float64, k)
 		for i := 0; i < k; i++ {
-			low[j][i] = out[j][2*i] / sp.Scale
-			high[j][i] = out[j][2*i+1] / sp.Scale
+			low[j][i] = out[j][2*i]/sp.Scale - sp.Offset
+			high[j][i] = out[j][2*i+1]/sp.Scale - sp.Offset
 		}
 	}
 	return low, high, base

@@ -8,17 +8,20 @@ type Dimension string
 
 // The dimensions of rockheat's inputs.
 const (
-	DimArea         Dimension = "area"
-	DimLength       Dimension = "length"
-	DimTemperature  Dimension = "temperature"
-	DimFraction     Dimension = "fraction"
-	DimDensity      Dimension = "density"
-	DimHeatCapacity Dimension = "specific heat capacity"
-	DimTime         Dimension = "time"
-	DimPressure     Dimension = "pressure"
-	DimGradient     Dimension = "temperature gradient"
-	DimFlowPerArea  Dimension = "flow per unit area"
-	DimPowerPerArea Dimension = "power per unit area"
+	DimArea           Dimension = "area"
+	DimLength         Dimension = "length"
+	DimTemperature    Dimension = "temperature"
+	DimFraction       Dimension = "fraction"
+	DimDensity        Dimension = "density"
+	DimHeatCapacity   Dimension = "specific heat capacity"
+	DimTime           Dimension = "time"
+	DimPressure       Dimension = "pressure"
+	DimGradient       Dimension = "temperature gradient"
+	DimFlowPerArea    Dimension = "flow per unit area"
+	DimPowerPerArea   Dimension = "power per unit area"
+	DimHeatFlow       Dimension = "heat flow"
+	DimConductivity   Dimension = "thermal conductivity"
+	DimHeatProduction Dimension = "heat production"
 )
 
 // Unit is a unit in which an input's values are given, with its affine map

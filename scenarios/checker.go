@@ -21,18 +21,21 @@ func (c *checker) add(key, format string, args ...any) {
 }
 
 // sort orders the problems as a reader meets the file's parts: settings,
-// unknown inputs, the inputs in the model's order, then correlations.
+// layers, unknown inputs, the inputs in the model's order, then
+// correlations.
 func (c *checker) sort() {
 	rank := func(p Problem) (int, int) {
 		switch {
 		case strings.HasPrefix(p.Key, "inputs."):
 			name, _, _ := strings.Cut(strings.TrimPrefix(p.Key, "inputs."), ".")
 			if i := slices.Index(c.order, name); i >= 0 {
-				return 2, i
+				return 3, i
 			}
+			return 2, 0
+		case strings.HasPrefix(p.Key, "layers"):
 			return 1, 0
 		case strings.HasPrefix(p.Key, "correlations"):
-			return 3, 0
+			return 4, 0
 		}
 		return 0, 0
 	}

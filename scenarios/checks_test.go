@@ -50,7 +50,7 @@ func TestParseHotRock(t *testing.T) {
 		t.Fatal(err)
 	}
 	m = s.Run.Model.(*rockheat.HotRock)
-	if len(m.Layers) != 2 || m.Layers[1].Gradient.Dist.Quantile(0.5) != 25 || m.Layers[1].Gradient.Unit != rockheat.CelsiusPerKm {
+	if len(m.Layers) != 2 || m.Layers[1].Gradient.Dist.Quantile(0.5) != 25 || m.Layers[1].Bottom.Dist.Quantile(0.5) != 8 {
 		t.Errorf("layers = %+v", m.Layers)
 	}
 	if _, ok := s.Input("gradient_c_per_km"); ok {
@@ -76,7 +76,7 @@ func TestModelProblems(t *testing.T) {
 		{"too shallow for any heat", strings.Replace(hotRock, "min = 5, max = 6 }", "min = 1, max = 3 }", 1), []string{"inputs.max_depth_km", "no trial has useful heat"}},
 		{"layers out of order", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
 			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n[[layers]]\nbottom_km = 2\ngradient_c_per_km = 25\n",
-			[]string{"layers", "layer 2", "bottom 2 km"}},
+			[]string{"layers[2]", "bottom reaches 2 km, not below layer 1's"}},
 		{"layers and gradient", hotRock + "[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n", []string{"inputs.gradient_c_per_km", "remove it or the layers"}},
 		{"layer gradient zero", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
 			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 0\n", []string{"layers", "gradient"}},

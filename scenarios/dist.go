@@ -24,6 +24,9 @@ var distParams = map[string][2][]string{
 // value) or a table naming a distribution and its parameters.
 func (c *checker) distribution(name string, v any) (sampler.Distribution, bool) {
 	key := "inputs." + name
+	if strings.HasPrefix(name, "layers[") {
+		key = name
+	}
 	if x, ok := number(v); ok {
 		return sampler.Fixed{Value: x}, true
 	}

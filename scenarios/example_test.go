@@ -21,5 +21,5 @@ porosty = 0.1
 	}
 	// Output:
 	// true
-	// broken.toml:4: inputs.porosty: unknown input for model kind "reservoir" (did you mean "porosity"?); the inputs it takes are area_km2, thickness_m, reservoir_temp_c, reference_temp_c, porosity, rock_density_kg_m3, rock_heat_capacity_j_kgk, fluid_density_kg_m3, fluid_heat_capacity_j_kgk, recovery_factor, conversion_efficiency, capacity_factor, life_years
+	// broken.toml:4: inputs.porosty: unknown input for model kind "reservoir" (did you mean "porosity"?); the inputs it takes are area_km2, thickness_m, reservoir_temp_c, surface_temp_c, top_depth_m, gradient_c_per_km, heat_flow_mw_m2, conductivity_w_mk, heat_production_uw_m3, reference_temp_c, porosity, rock_density_kg_m3, rock_heat_capacity_j_kgk, fluid_density_kg_m3, fluid_heat_capacity_j_kgk, recovery_factor, conversion_efficiency, capacity_factor, life_years
 }

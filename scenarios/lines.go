@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"fmt"
 	"regexp"
 	"strings"
 )
@@ -10,21 +11,30 @@ import (
 // keys of one-line inline tables.
 func indexLines(src []byte) map[string]int {
 	lines := map[string]int{}
-	table := ""
+	table, entry := "", "" // entry: "layers[2]" within the second [[layers]]
+	count := map[string]int{}
 	for i, l := range strings.Split(string(src), "\n") {
 		l = strings.TrimSpace(l)
 		if l == "" || l[0] == '#' {
 			continue
 		}
 		if m := headerRE.FindStringSubmatch(l); m != nil {
-			table = strings.TrimSpace(m[1])
+			table, entry = strings.TrimSpace(m[1]), ""
 			if _, ok := lines[table]; !ok {
 				lines[table] = i + 1
+			}
+			if strings.HasPrefix(l, "[[") {
+				count[table]++
+				entry = fmt.Sprintf("%s[%d]", table, count[table])
+				lines[entry] = i + 1
 			}
 			continue
 		}
 		if m := keyRE.FindStringSubmatch(l); m != nil {
 			key := m[1]
+			if entry != "" {
+				lines[entry+"."+key] = i + 1
+			}
 			if table != "" {
 				key = table + "." + key
 			}

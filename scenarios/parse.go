@@ -29,13 +29,11 @@ type raw struct {
 		Kind        *string   `toml:"kind"`
 		Fluid       *string   `toml:"fluid"`
 		Conversion  *string   `toml:"conversion"`
+		Decline     *string   `toml:"decline"`
 		ReportYears []float64 `toml:"report_years"`
 	} `toml:"model"`
-	Inputs map[string]any `toml:"inputs"`
-	Layers []struct {
-		BottomKm       *float64 `toml:"bottom_km"`
-		GradientCPerKm *float64 `toml:"gradient_c_per_km"`
-	} `toml:"layers"`
+	Inputs       map[string]any   `toml:"inputs"`
+	Layers       []map[string]any `toml:"layers"`
 	Correlations []struct {
 		Inputs []string `toml:"inputs"`
 		Rank   *float64 `toml:"rank"`
@@ -43,7 +41,7 @@ type raw struct {
 }
 
 var knownTopKeys = []string{"title", "run.trials", "run.seed", "run.sampling", "model.kind", "model.fluid",
-	"model.conversion", "model.report_years", "layers", "correlations"}
+	"model.conversion", "model.decline", "model.report_years", "layers", "correlations"}
 
 // Parse checks the scenario text src, read from path (used in messages).
 // It returns every problem found, as Problems.
@@ -56,8 +54,8 @@ func Parse(path string, src []byte) (*Scenario, error) {
 	c := &checker{path: path, lines: indexLines(src), bad: map[string]bool{}}
 	for _, k := range md.Undecoded() {
 		key := k.String()
-		if len(k) > 2 && k[0] == "inputs" {
-			continue // parameters of a distribution table, checked in input
+		if len(k) > 2 && k[0] == "inputs" || len(k) > 1 && k[0] == "layers" {
+			continue // parameters of a distribution table, and layer keys: checked where they are read
 		}
 		c.add(key, "unknown key%s; remove it or correct its spelling", suggest(key, knownTopKeys))
 	}
@@ -116,43 +114,72 @@ func (c *checker) model(r *raw) rockheat.Model {
 	kind := choice(c, "model.kind", r.Model.Kind, heatmodel.Kinds, heatmodel.KindReservoir)
 	fluid := choice(c, "model.fluid", r.Model.Fluid, heatmodel.FluidSources, heatmodel.FluidFixed)
 	conv := choice(c, "model.conversion", r.Model.Conversion, heatmodel.Conversions, heatmodel.ConversionEfficiency)
-	if kind == heatmodel.KindPowerDensity {
-		if r.Model.Fluid != nil || r.Model.Conversion != nil {
-			c.add("model", "kind \"power-density\" takes no fluid or conversion: it scales an area by the power density of analogous fields; remove them")
-		}
-	}
+	decline := choice(c, "model.decline", r.Model.Decline, heatmodel.Declines, heatmodel.DeclineExponential)
 	if kind != heatmodel.KindHotRock {
 		if r.Model.ReportYears != nil {
 			c.add("model.report_years", "applies to kind \"hot-rock\" only; remove it")
 		}
+		if r.Model.Decline != nil {
+			c.add("model.decline", "applies to kind \"hot-rock\" only (the drawdown of a mined block); remove it")
+		}
+	}
+	switch kind {
+	case heatmodel.KindPowerDensity:
+		if r.Model.Fluid != nil || r.Model.Conversion != nil {
+			c.add("model", "kind \"power-density\" takes no fluid or conversion: it scales an area by the power density of analogous fields; remove them")
+		}
 		if len(r.Layers) > 0 {
-			c.add("layers", "[[layers]] apply to kind \"hot-rock\" only; remove them")
+			c.add("layers", "[[layers]] do not apply to kind \"power-density\"; remove them")
 		}
-		if kind == heatmodel.KindPowerDensity {
-			return &rockheat.PowerDensity{}
-		}
-		return &rockheat.Reservoir{Fluid: fluid, Conversion: conv}
+		return &rockheat.PowerDensity{}
+	case heatmodel.KindReservoir:
+		m := &rockheat.Reservoir{Fluid: fluid, Conversion: conv}
+		m.Layers = c.layers(r.Layers)
+		return m
 	}
 	if conv == heatmodel.ConversionExergy {
 		c.add("model.conversion", "= \"exergy\" applies to kind \"reservoir\" (it needs the produced fluid's state); use \"efficiency\" for kind \"hot-rock\"")
 	}
-	m := &rockheat.HotRock{Fluid: fluid, ReportYears: r.Model.ReportYears}
+	m := &rockheat.HotRock{Fluid: fluid, ReportYears: r.Model.ReportYears, Decline: decline}
 	if r.Model.ReportYears != nil && len(r.Model.ReportYears) == 0 {
 		m.ReportYears = []float64{} // reported as empty by Validate
 	}
-	for i, l := range r.Layers {
-		if l.BottomKm == nil || l.GradientCPerKm == nil {
-			c.add(fmt.Sprintf("layers[%d]", i+1), "each layer needs bottom_km and gradient_c_per_km, e.g. { bottom_km = 2.5, gradient_c_per_km = 35 }")
-			continue
-		}
-		m.Layers = append(m.Layers, rockheat.Layer{Bottom: rockheat.Fixed(*l.BottomKm, rockheat.Kilometre),
-			Gradient: rockheat.Fixed(*l.GradientCPerKm, rockheat.CelsiusPerKm)})
-	}
-	if len(m.Layers) != len(r.Layers) {
-		m.Layers = nil // reported above; a partial geotherm would mislead the checks
-		c.bad["gradient_c_per_km"] = true
-	}
+	m.Layers = c.layers(r.Layers)
 	return m
+}
+
+// layerKeys are the keys of a [[layers]] entry.
+var layerKeys = []string{"bottom_km", "gradient_c_per_km", "conductivity_w_mk", "heat_production_uw_m3"}
+
+// layers reads the [[layers]] list: each entry's values are numbers or
+// distribution tables, like inputs.
+func (c *checker) layers(raw []map[string]any) []rockheat.Layer {
+	var out []rockheat.Layer
+	for i, entry := range raw {
+		var l rockheat.Layer
+		dst := map[string]*rockheat.Quantity{"bottom_km": &l.Bottom, "gradient_c_per_km": &l.Gradient,
+			"conductivity_w_mk": &l.Conductivity, "heat_production_uw_m3": &l.HeatProduction}
+		keys := make([]string, 0, len(entry))
+		for k := range entry {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		for _, k := range keys {
+			key := fmt.Sprintf("layers[%d].%s", i+1, k)
+			q, ok := dst[k]
+			if !ok {
+				c.add(key, "unknown key of a layer%s; a layer takes %s", suggest(k, layerKeys), strings.Join(layerKeys, ", "))
+				continue
+			}
+			if d, ok := c.distribution(key, entry[k]); ok {
+				*q = rockheat.Quantity{Dist: d}
+			} else {
+				c.bad[key] = true
+			}
+		}
+		out = append(out, l)
+	}
+	return out
 }
 
 // choice reads the value of a closed set at key, or returns def.
@@ -239,6 +266,9 @@ func (c *checker) validate(run *rockheat.Run) (warnings Problems) {
 			continue // reported as written
 		}
 		key := "inputs." + e.Input
+		if strings.HasPrefix(e.Input, "layers[") {
+			key = e.Input
+		}
 		msg := e.Msg
 		if e.Missing {
 			if _, ok := c.lines[key]; !ok {
