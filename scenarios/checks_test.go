@@ -80,6 +80,30 @@ func TestModelProblems(t *testing.T) {
 		{"layers and gradient", hotRock + "[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n", []string{"inputs.gradient_c_per_km", "remove it or the layers"}},
 		{"layer gradient zero", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
 			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 0\n", []string{"layers", "gradient"}},
+		{"heat flow with no useful depth", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n",
+			"heat_flow_mw_m2 = 30\nconductivity_w_mk = 3.5\nheat_production_uw_m3 = 3\n", 1), []string{"inputs.max_depth_km", "no trial has useful heat"}},
+		{"heat flow without conductivity", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n",
+			"heat_flow_mw_m2 = 80\n", 1), []string{"needs both heat_flow_mw_m2 and conductivity_w_mk"}},
+		{"gradient and heat flow", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n",
+			"gradient_c_per_km = 30\nheat_flow_mw_m2 = 80\nconductivity_w_mk = 3\n", 1), []string{"not both"}},
+		{"layers of rock without heat flow", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+			"[[layers]]\nbottom_km = 3\nconductivity_w_mk = 2.5\n", []string{"layers", "need the surface heat flow"}},
+		{"layers mixed", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+			"[[layers]]\nbottom_km = 3\nconductivity_w_mk = 2.5\n[[layers]]\nbottom_km = 9\ngradient_c_per_km = 30\n", []string{"not a mix"}},
+		{"layer typo", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
+			"[[layers]]\nbottom_km = 3\ngradeint_c_per_km = 30\n", []string{"layers[1].gradeint_c_per_km", `did you mean "gradient_c_per_km"`}},
+		{"unknown decline", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"linear\"", 1), []string{"model.decline", `"fractures"`}},
+		{"decline for reservoir", strings.Replace(good, `kind = "reservoir"`, "kind = \"reservoir\"\ndecline = \"fractures\"", 1), []string{"model.decline", "hot-rock"}},
+		{"fracture spacing zero", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1) +
+			"", []string{"fracture_spacing_m", "missing"}},
+		{"flow path longer than the block", strings.Replace(strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1),
+			"life_years = 30", "life_years = 30\nfracture_spacing_m = 100\nflow_path_m = 3000\nrock_conductivity_w_mk = 3", 1),
+			[]string{"inputs.flow_path_m", "longer than the side of the smallest block"}},
+		{"fracture spacing not positive", strings.Replace(strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1),
+			"life_years = 30", "life_years = 30\nfracture_spacing_m = 0\nflow_path_m = 500\nrock_conductivity_w_mk = 3", 1),
+			[]string{"inputs.fracture_spacing_m", "outside the valid range"}},
+		{"reservoir temperature twice", strings.Replace(good, "porosity =", "surface_temp_c = 10\ntop_depth_m = 1500\ngradient_c_per_km = 40\nporosity =", 1),
+			[]string{"inputs.reservoir_temp_c", "not both"}},
 		{"if97 without pressure", strings.Replace(strings.Replace(good, "fluid_density_kg_m3 = 850\nfluid_heat_capacity_j_kgk = 4600\n", "", 1),
 			`kind = "reservoir"`, "kind = \"reservoir\"\nfluid = \"if97\"", 1), []string{"reservoir_pressure_mpa", "depth_m"}},
 		{"if97 with both", strings.Replace(strings.Replace(good, "fluid_density_kg_m3 = 850\nfluid_heat_capacity_j_kgk = 4600\n", "reservoir_pressure_mpa = 10\ndepth_m = 1000\n", 1),

@@ -1,0 +1,147 @@
+package rockheat_test
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"rockheat"
+	"rockheat/scenarios"
+)
+
+// reservoirWith is a reservoir scenario with every input fixed but the
+// temperature lines given.
+func reservoirWith(temperature string) string {
+	return `title = "Geotherm reservoir (invented)"
+[inputs]
+area_km2 = 4
+thickness_m = 1000
+` + temperature + `
+porosity = 0.05
+rock_density_kg_m3 = 2650
+rock_heat_capacity_j_kgk = 900
+fluid_density_kg_m3 = 900
+fluid_heat_capacity_j_kgk = 4300
+recovery_factor = 0.15
+conversion_efficiency = 0.1
+capacity_factor = 0.9
+life_years = 30
+`
+}
+
+func figure(t *testing.T, r *rockheat.Result, name string) float64 {
+	t.Helper()
+	for _, o := range r.Outputs {
+		if o.Spec.Name == name {
+			return o.Summary.P50
+		}
+	}
+	t.Fatalf("no output %s", name)
+	return 0
+}
+
+// TestReservoirFromGeotherm: a reservoir's temperature from a geotherm is
+// the exact mean of T(z) over its thickness, so the run equals one given
+// that mean temperature. By hand (docs/references.md §6):
+//
+//	gradient: Ts = 12 °C, G = 35 °C/km, top 2 km, h = 1 km:
+//	  T̄ = 12 + 35·2.5 = 99.5 °C
+//	heat flow: Ts = 10 °C, q0 = 65 mW/m², k = 2.5 W/(m·K), A = 1 µW/m³:
+//	  T(z) = 10 + 0.026·z − 2e-7·z², mean of z over 2–3 km 2500 m,
+//	  mean of z² (3000³ − 2000³)/(3·1000) = 6.33333e6 m²:
+//	  T̄ = 10 + 65 − 1.266667 = 73.733333 °C
+//	layers: 0–1.5 km at 50 °C/km, then 20 °C/km; Ts = 10 °C, reservoir 1–3 km:
+//	  T(1 km) = 60, T(1.5 km) = 85, T(3 km) = 115 °C;
+//	  T̄ = [(60 + 85)/2·0.5 + (85 + 115)/2·1.5]/2 = (36.25 + 150)/2 = 93.125 °C
+func TestReservoirFromGeotherm(t *testing.T) {
+	t.Parallel()
+	cases := []struct {
+		name, geo string
+		top       float64 // m
+		tbar      float64 // °C, by hand
+	}{
+		{"gradient", "surface_temp_c = 12\ntop_depth_m = 2000\ngradient_c_per_km = 35", 2000, 99.5},
+		{"heat flow", "surface_temp_c = 10\ntop_depth_m = 2000\nheat_flow_mw_m2 = 65\nconductivity_w_mk = 2.5\nheat_production_uw_m3 = 1", 2000, 73.7333333333},
+		{"layers", "surface_temp_c = 10\ntop_depth_m = 1000", 1000, 93.125},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			src := reservoirWith(c.geo)
+			if c.name == "layers" {
+				src += "[[layers]]\nbottom_km = 1.5\ngradient_c_per_km = 50\n[[layers]]\nbottom_km = 10\ngradient_c_per_km = 20\n"
+				src = strings.Replace(src, "thickness_m = 1000", "thickness_m = 2000", 1)
+			}
+			geo, err := rockheat.Estimate(&mustParse(t, src).Run, rockheat.Options{Trials: 3})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := figure(t, geo, "reservoir_temp"); math.Abs(got-c.tbar) > 1e-9 {
+				t.Errorf("mean reservoir temperature %.10g °C, want %.10g by hand", got, c.tbar)
+			}
+			direct := reservoirWith("reservoir_temp_c = " + strconv.FormatFloat(c.tbar, 'g', -1, 64))
+			if c.name == "layers" {
+				direct = strings.Replace(direct, "thickness_m = 1000", "thickness_m = 2000", 1)
+			}
+			want, err := rockheat.Estimate(&mustParse(t, direct).Run, rockheat.Options{Trials: 3})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if a, b := figure(t, geo, "heat_in_place"), figure(t, want, "heat_in_place"); math.Abs(a/b-1) > 1e-9 {
+				t.Errorf("heat in place %g J from the geotherm, %g J from its mean temperature", a, b)
+			}
+		})
+	}
+}
+
+// hotRockText returns the bundled hot-rock demo's text.
+func hotRockText(t *testing.T) string {
+	t.Helper()
+	ex, err := scenarios.LookupExample("hot-rock-demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(ex.Text)
+}
+
+// TestHotRockDeclinesAgree: the exponential and the fracture declines of
+// one hot-rock column share its useful heat E0 and initial power
+// E0/τ = ρw·cw·Q·(T̄ − Tmin) (docs/references.md §5, §11), trial by trial
+// (the same draws: the fracture inputs are fixed); the fracture model with
+// a wide spacing keeps less of its power than the well-mixed one does
+// late in the life, as water short-circuits through few fractures.
+func TestHotRockDeclinesAgree(t *testing.T) {
+	t.Parallel()
+	ex := hotRockText(t)
+	frac := strings.Replace(ex, "report_years = [0, 10, 20, 30]", "report_years = [0, 10, 20, 30]\ndecline = \"fractures\"", 1)
+	frac = strings.Replace(frac, "life_years = 30", "life_years = 30\nfracture_spacing_m = 200\nflow_path_m = 800\nrock_conductivity_w_mk = 2.8", 1)
+	opt := rockheat.Options{Trials: 4000, KeepSamples: true}
+	e, err := rockheat.Estimate(&mustParse(t, ex).Run, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f, err := rockheat.Estimate(&mustParse(t, frac).Run, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := func(r *rockheat.Result, name string) []float64 {
+		for j, n := range r.Samples.Names {
+			if n == name {
+				return r.Samples.Columns[j]
+			}
+		}
+		t.Fatalf("no column %s", name)
+		return nil
+	}
+	for _, name := range []string{"heat_in_place", "initial_thermal_power"} {
+		a, b := col(e, name), col(f, name)
+		for i := range a {
+			if a[i] != 0 && math.Abs(b[i]/a[i]-1) > 1e-9 {
+				t.Fatalf("trial %d: %s %g (exponential) vs %g (fractures)", i, name, a[i], b[i])
+			}
+		}
+	}
+	if a, b := figure(t, e, "thermal_power_at_30_years"), figure(t, f, "thermal_power_at_30_years"); !(b < a) {
+		t.Errorf("power at 30 years: fractures %g MWth, exponential %g; 200 m spacing should cool faster", b, a)
+	}
+}
