@@ -140,6 +140,9 @@ func (r *run) result() *Result {
 		Trials: r.ranTrials(), Seed: s.seed, Sampling: c.run.Sampling, Confidence: s.stat.Level(),
 		Streaming: s.streaming, Precision: s.Precision, Correlations: c.run.Correlations,
 		PerBatch: c.run.Sampling == sampler.LatinHypercube && s.streaming && s.trials > sampler.BatchSize}
+	if h, ok := c.run.Model.(*HotRock); ok {
+		res.Decline = h.Decline
+	}
 	for _, in := range c.inputs {
 		res.Inputs = append(res.Inputs, Input{Key: in.name, Unit: in.unit.Symbol, Doc: in.Doc, Dist: in.dist.String(), Fixed: in.fixed})
 	}

@@ -61,6 +61,11 @@ type HotRock struct {
 	// producer, in rock of RockConductivity (W/(m·K)).
 	Decline                                     heatmodel.Decline
 	FractureSpacing, FlowPath, RockConductivity Quantity
+
+	// drawFractures keeps the fracture inputs among the drawn ones with
+	// the exponential decline, so that a comparison draws the same values
+	// of every other input (CompareDeclines).
+	drawFractures bool
 }
 
 // Kind returns heatmodel.KindHotRock.
@@ -90,7 +95,7 @@ func (m *HotRock) fields(e *hotRockEval) []Field {
 		required(&m.RockHeatCapacity, &h.RockHeatCapacity, "rock_heat_capacity", JPerKgK, "rock specific heat capacity", rockHeatRange),
 		required(&m.FlowPerArea, &h.Flux, "flow_per_area", FlowPerKm2, "circulated water flow per unit area", flowRange),
 	)
-	if m.Decline == heatmodel.DeclineFractures {
+	if m.Decline == heatmodel.DeclineFractures || m.drawFractures {
 		fs = append(fs,
 			required(&m.FractureSpacing, &h.FractureSpacing, "fracture_spacing", Metre, "spacing of the parallel fractures", spacingRange),
 			required(&m.FlowPath, &h.FlowPath, "flow_path", Metre, "flow path from injector to producer along a fracture", pathRange),
@@ -213,6 +218,13 @@ func (m *HotRock) check(p *problems, c *checked) {
 	mode, ok := m.Geotherm.check(p, c, fieldOf(c.fields, &m.Gradient).label())
 	if m.Decline == heatmodel.DeclineFractures {
 		checkFractures(p, c, &m.Area, &m.FractureSpacing, &m.FlowPath)
+	} else if !m.drawFractures {
+		for _, q := range []*Quantity{&m.FractureSpacing, &m.FlowPath, &m.RockConductivity} {
+			if q.Given() {
+				p.setting("model", 0, "fracture inputs are given but the decline is exponential; set decline = \"fractures\", or remove them")
+				break
+			}
+		}
 	}
 	if ok {
 		m.checkColumn(p, c, mode)

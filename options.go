@@ -68,7 +68,12 @@ type OptionError struct {
 	Msg     string
 }
 
-func (e *OptionError) Error() string { return strings.Join(e.Options, " and ") + ": " + e.Msg }
+func (e *OptionError) Error() string {
+	if len(e.Options) == 0 {
+		return e.Msg
+	}
+	return strings.Join(e.Options, " and ") + ": " + e.Msg
+}
 
 func optionErrorf(options []string, format string, args ...any) error {
 	return &OptionError{Options: options, Msg: fmt.Sprintf(format, args...)}

@@ -26,7 +26,7 @@ func (m *PowerDensity) Fields() []Field { return m.fields(&powerDensityEval{}) }
 
 // powerDensityRange is the range of power densities: producing fields
 // above 200 °C span about 2–50 MWe/km² (Wilmarth & Stimac 2014).
-var powerDensityRange = Ranges{Domain{Lo: 0, Hi: 1000, LoOpen: true}, Domain{Lo: 1, Hi: 50}}
+var powerDensityRange = Ranges{Domain{Lo: 0, Hi: 1000, LoOpen: true}, Domain{Lo: 0.5, Hi: 60}}
 
 func (m *PowerDensity) fields(e *powerDensityEval) []Field {
 	return []Field{

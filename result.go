@@ -17,9 +17,11 @@ type Result struct {
 	// conversion route.
 	Fluid      heatmodel.FluidSource
 	Conversion heatmodel.Conversion
-	Trials     int // trials run
-	Seed       uint64
-	Sampling   sampler.Method
+	// Decline is a hot-rock result's drawdown model.
+	Decline  heatmodel.Decline
+	Trials   int // trials run
+	Seed     uint64
+	Sampling sampler.Method
 	// PerBatch is true when the Latin hypercube was stratified batch by
 	// batch rather than over the whole run.
 	PerBatch bool
@@ -50,6 +52,9 @@ type Result struct {
 	Samples *Samples
 	// Warnings are problems that did not stop the run, each with a fix.
 	Warnings []string
+	// Comparison, when set (by CompareDeclines), is the same hot-rock run
+	// with the other decline model.
+	Comparison *Result
 }
 
 // Input describes one input of a run in a Result.

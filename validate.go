@@ -255,7 +255,7 @@ func typical(p *problems, in input, d sampler.Distribution) {
 		verb = "is"
 	}
 	p.warnings = append(p.warnings, &InputError{Input: in.name, Msg: fmt.Sprintf(
-		"%s %g %s, outside the range %s %s common for the %s; check the value and its unit",
+		"%s %.6g %s, outside the range %s %s common for the %s; check the value and its unit",
 		verb, beyond, in.unit.Symbol, t, in.unit.Symbol, in.Doc)})
 }
 

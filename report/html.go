@@ -61,13 +61,14 @@ type chartSection struct {
 
 // declineSection is the thermal power at each report year.
 type declineSection struct {
-	Unit  string
-	Rows  []yearRow
-	Chart template.HTML
-	Note  string
+	Unit     string
+	Compared string // heading of the compared decline's column, if any
+	Rows     []yearRow
+	Chart    template.HTML
+	Note     string
 }
 
-type yearRow struct{ Year, P90, P50, P10 string }
+type yearRow struct{ Year, P90, P50, P10, Compared string }
 
 func newPage(r *rockheat.Result) (*page, error) {
 	pg := &page{
@@ -110,9 +111,17 @@ func newPage(r *rockheat.Result) (*page, error) {
 
 	if outs := declineOutputs(r); len(outs) > 0 {
 		d := &declineSection{Unit: outs[0].Spec.Unit}
-		for _, o := range outs {
+		alt := declineOutputs(r.Comparison)
+		if len(alt) == len(outs) {
+			d.Compared = "P50, " + r.Comparison.Decline.String() + " decline"
+		}
+		for i, o := range outs {
 			s := o.Summary
-			d.Rows = append(d.Rows, yearRow{Year: fmt.Sprintf("%g", o.Spec.Year), P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10)})
+			row := yearRow{Year: fmt.Sprintf("%g", o.Spec.Year), P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10)}
+			if d.Compared != "" {
+				row.Compared = fig(alt[i].Summary.P50)
+			}
+			d.Rows = append(d.Rows, row)
 		}
 		var err error
 		if d.Chart, err = inlineSVG("thermal power decline", func(w io.Writer) error { return DeclineSVG(w, cr) }); err != nil {
@@ -173,8 +182,8 @@ var pageTemplate = template.Must(template.New("page").Parse(styleHTML + provenan
 {{with .Decline}}
 <h2>Thermal power decline</h2>
 <table>
-<tr><th class="n">year</th><th class="n">P90 (low)</th><th class="n">P50 (best)</th><th class="n">P10 (high)</th></tr>
-{{range .Rows}}<tr><td class="n">{{.Year}}</td><td class="n">{{.P90}}</td><td class="n">{{.P50}}</td><td class="n">{{.P10}}</td></tr>
+<tr><th class="n">year</th><th class="n">P90 (low)</th><th class="n">P50 (best)</th><th class="n">P10 (high)</th>{{if .Compared}}<th class="n">{{.Compared}}</th>{{end}}</tr>
+{{range .Rows}}<tr><td class="n">{{.Year}}</td><td class="n">{{.P90}}</td><td class="n">{{.P50}}</td><td class="n">{{.P10}}</td>{{if .Compared}}<td class="n">{{.Compared}}</td>{{end}}</tr>
 {{end}}</table>
 <p class="note">Thermal power in {{.Unit}} at each report year.</p>
 {{if .Chart}}<figure>{{.Chart}}</figure>{{else}}<p class="note">{{.Note}}</p>{{end}}

@@ -7,6 +7,7 @@ import (
 	"math"
 
 	"rockheat"
+	"rockheat/heatmodel"
 	"rockheat/stats"
 )
 
@@ -177,6 +178,14 @@ type jsonResult struct {
 	Correlations   []jsonCorrelation `json:"correlations"`
 	Warnings       []string          `json:"warnings"`
 	Caution        string            `json:"caution"`
+	Decline        string            `json:"decline,omitempty"`
+	Compared       *jsonCompared     `json:"compared_decline,omitempty"`
+}
+
+// jsonCompared is the run with the other decline model.
+type jsonCompared struct {
+	Decline string `json:"decline"`
+	Outputs object `json:"outputs"`
 }
 
 // JSON writes r in the JSON contract: title, kind, trials, seed,
@@ -199,6 +208,12 @@ func JSON(w io.Writer, r *rockheat.Result) error {
 	}
 	if r.Precision > 0 {
 		jr.Precision = &jsonPrecision{Target: r.Precision, Converged: r.Converged}
+	}
+	if r.Kind == heatmodel.KindHotRock {
+		jr.Decline = r.Decline.String()
+	}
+	if c := r.Comparison; c != nil {
+		jr.Compared = &jsonCompared{Decline: c.Decline.String(), Outputs: outputsObject(c.Outputs, c.Confidence)}
 	}
 	for _, in := range r.Inputs {
 		jr.Inputs = append(jr.Inputs, jsonInput{Key: in.Key, Unit: in.Unit, Distribution: in.Dist})

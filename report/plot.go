@@ -658,13 +658,34 @@ func declineChart(r *rockheat.Result) (chart, error) {
 		end := c.xy[len(c.xy)-1]
 		ends.labels = append(ends.labels, endLabel{x: end.X, y: end.Y, text: c.name + "  " + fig(end.Y), color: c.col})
 	}
-	p.Add(ends)
 	caption := []string{"Band: from the P90 (exceeded by 90% of trials) to the P10 (exceeded by 10%) of the thermal power at each report year, " + unit + "."}
+	if alt := declineOutputs(r.Comparison); len(alt) > 0 {
+		pts := make(plotter.XYs, len(alt))
+		for i, o := range alt {
+			pts[i] = plotter.XY{X: o.Spec.Year, Y: o.Summary.P50}
+			top = math.Max(top, o.Summary.P50)
+		}
+		l, err := plotter.NewLine(pts)
+		if err != nil {
+			return chart{}, fmt.Errorf("drawing the compared decline: %w", err)
+		}
+		l.Color, l.Width, l.Dashes = meanColor, vg.Points(2), []vg.Length{vg.Points(2), vg.Points(2)}
+		p.Add(l)
+		end := pts[len(pts)-1]
+		ends.labels = append(ends.labels, endLabel{x: end.X, y: end.Y, text: "P50 " + r.Comparison.Decline.String() + "  " + fig(end.Y), color: meanColor})
+		p.Y.Max = math.Max(top*1.08, 1e-9)
+		caption = append(caption, fmt.Sprintf("Solid: the %s decline; dotted green: the P50 with the %s decline, on the same draws.", r.Decline, r.Comparison.Decline))
+	}
+	p.Add(ends)
 	return chart{p, 7 * vg.Inch, 4.4 * vg.Inch, footerHeight(len(caption), false), footer(runNote(r), caption, nil)}, nil
 }
 
-// declineOutputs returns the outputs of group rockheat.DeclineGroup, by year.
+// declineOutputs returns the outputs of group rockheat.DeclineGroup, by
+// year; none for a nil r.
 func declineOutputs(r *rockheat.Result) []rockheat.Output {
+	if r == nil {
+		return nil
+	}
 	var outs []rockheat.Output
 	for _, o := range r.Outputs {
 		if o.Spec.Group == rockheat.DeclineGroup {

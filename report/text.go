@@ -33,6 +33,7 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	for _, note := range runNotes(r) {
 		wrap(&b, note, 100)
 	}
+	declineComparisonText(&b, r)
 	sensitivityText(&b, r)
 
 	b.WriteString("\nInputs\n")
@@ -54,6 +55,22 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	wrap(&b, "CAUTION: "+Caution, 100)
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// declineComparisonText writes the thermal power at each report year
+// with both declines, when r has a comparison.
+func declineComparisonText(b *strings.Builder, r *rockheat.Result) {
+	outs, alt := declineOutputs(r), declineOutputs(r.Comparison)
+	if len(alt) == 0 || len(alt) != len(outs) {
+		return
+	}
+	fmt.Fprintf(b, "\nThermal power, %s decline against %s, on the same draws (%s):\n", r.Decline, r.Comparison.Decline, outs[0].Spec.Unit)
+	rows := [][]string{{"  year", "P90 " + r.Decline.String(), "P50", "P10", "P50 " + r.Comparison.Decline.String()}}
+	for i, o := range outs {
+		s := o.Summary
+		rows = append(rows, []string{fmt.Sprintf("  %g", o.Spec.Year), fig(s.P90), fig(s.P50), fig(s.P10), fig(alt[i].Summary.P50)})
+	}
+	table(b, rows, "rrrrr")
 }
 
 // runNotes are the sentences that qualify a run's figures: zero-heat
@@ -88,6 +105,9 @@ const PowerDensityNote = "Implied power density: electric capacity per km² of r
 
 // zeroHeatNote says how many trials held no heat, and why a trial can.
 func zeroHeatNote(r *rockheat.Result) string {
+	if r.Kind == heatmodel.KindPowerDensity {
+		return "The power-density kind scales an area by analog fields; it holds no heat in place."
+	}
 	what := "reservoir temperature at or below the reference temperature"
 	if r.Kind == heatmodel.KindHotRock {
 		what = "no rock at or above the minimum useful temperature between the top and the maximum depth"
@@ -95,6 +115,9 @@ func zeroHeatNote(r *rockheat.Result) string {
 	if r.ZeroHeatTrials > 0 {
 		return fmt.Sprintf("%d of %d trials (%.2f%%) had %s; they hold no heat and count as zero.",
 			r.ZeroHeatTrials, r.Trials, 100*float64(r.ZeroHeatTrials)/float64(r.Trials), what)
+	}
+	if r.Kind == heatmodel.KindHotRock {
+		return "Every trial had rock at or above the minimum useful temperature between the top and the maximum depth."
 	}
 	return fmt.Sprintf("No trial had %s.", what)
 }

@@ -104,7 +104,7 @@ func flagsFirst(args []string) ([]string, error) {
 		case a == "-h" || a == "--help":
 			// Help for the command, whatever else is given.
 			return append(out, "--help"), nil
-		case a == "--update" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
+		case a == "--update" || a == "--compare-declines" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
 			flags = append(flags, a)
 		case strings.HasPrefix(a, "-") && len(a) > 1 && !isNumber(a):
 			if i+1 == len(args) || strings.HasPrefix(args[i+1], "--") {

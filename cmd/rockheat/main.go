@@ -6,6 +6,7 @@
 //
 //	rockheat run SCENARIO [--format text|json|csv|html] [--out FILE] [--plots DIR] [--samples FILE]
 //	                      [--trials N] [--seed S] [--workers W] [--precision FRACTION] [--max-trials N]
+//	                      [--compare-declines]
 //	rockheat portfolio PORTFOLIO [--target MWE] [--format text|json|csv|html] [--out FILE] [--plots DIR]
 //	                      [--samples FILE] [--trials N] [--seed S] [--workers W]
 //	rockheat validate SCENARIO...

@@ -73,6 +73,7 @@ func runCommand() *cli.Command {
 	flags = append(flags,
 		&cli.StringFlag{Name: "precision", Usage: "run round after round (each doubling the trials, the first of --trials) until every P90/P50/P10 is known to this relative `FRACTION` (95% interval half-width), e.g. 0.5% or 0.005"},
 		&cli.IntFlag{Name: "max-trials", Usage: "trial cap for --precision, at least the first round", DefaultText: strconv.Itoa(rockheat.DefaultMaxTrials)},
+		&cli.BoolFlag{Name: "compare-declines", Usage: "for a hot-rock scenario with decline = \"fractures\": also run the exponential decline on the same draws, and show both"},
 	)
 	return &cli.Command{
 		Name:         "run",
@@ -108,7 +109,11 @@ func runCommand() *cli.Command {
 			if prog != nil {
 				opt.Progress = prog.update
 			}
-			res, err := rockheat.Estimate(&s.Run, opt)
+			estimate := rockheat.Estimate
+			if c.Bool("compare-declines") {
+				estimate = rockheat.CompareDeclines
+			}
+			res, err := estimate(&s.Run, opt)
 			prog.clear()
 			if err != nil {
 				return flagError(err)
