@@ -57,10 +57,23 @@ type worker struct {
 func (r *run) newWorker(w int) *worker {
 	size := min(sampler.BatchSize, r.plan.Trials())
 	wk := &worker{r: r, w: w,
-		si:      columns(len(r.sampled), size),
-		in:      make([][]float64, len(r.sampled)),
-		out:     make([][]float64, len(r.specs)),
-		localIn: columns(len(r.sampled), size), localOut: columns(len(r.specs), size)}
+		si:  make([][]float64, len(r.sampled)),
+		in:  make([][]float64, len(r.sampled)),
+		out: make([][]float64, len(r.specs))}
+	// Buffers only where a batch needs them: a column to convert to SI for
+	// an input not in SI units, and somewhere for the draws and outputs
+	// that the run does not keep.
+	for j, in := range r.sampled {
+		if in.unit.Scale != 1 || in.unit.Offset != 0 {
+			wk.si[j] = make([]float64, size)
+		}
+	}
+	if r.keepIn == nil {
+		wk.localIn = columns(len(r.sampled), size)
+	}
+	if r.exactOut == nil {
+		wk.localOut = columns(len(r.specs), size)
+	}
 	wk.ev, wk.cols = r.newEvaluator()
 	return wk
 }
@@ -91,18 +104,7 @@ func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
 		if err != nil {
 			return b, err
 		}
-		if r.sketches != nil {
-			for j := range r.specs {
-				r.sketches[wk.w][j].AddSlice(wk.out[j])
-			}
-		}
-		r.zero.Add(int64(z))
-		d := r.done.Add(int64(n))
-		if r.s.Progress != nil {
-			r.progMu.Lock()
-			r.s.Progress(int(d), r.planned)
-			r.progMu.Unlock()
-		}
+		r.add(wk, n, z)
 	}
 }
 
@@ -129,7 +131,6 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 	if err != nil {
 		return n, 0, err
 	}
-	r.saturated.Add(int64(wk.ev.saturated()))
 	for j, sp := range r.specs {
 		if sp.Scale != 1 {
 			inv := 1 / sp.Scale
@@ -220,7 +221,7 @@ func slot(dst, all, sens, local [][]float64, start, n, sensN int) {
 		switch {
 		case all != nil:
 			dst[j] = all[j][start : start+n]
-		case start+n <= sensN:
+		case sens != nil && start+n <= sensN:
 			dst[j] = sens[j][start : start+n]
 		default:
 			dst[j] = local[j][:n]

@@ -34,10 +34,11 @@ type run struct {
 	progMu    sync.Mutex
 	keepIn    [][]float64 // every trial's inputs (KeepSamples), or nil
 	exactOut  [][]float64 // every trial's outputs (exact mode), or nil
-	sensIn    [][]float64 // inputs of the sensitivity sample
-	sensOut   [][]float64 // outputs of the sensitivity sample
+	sensIn    [][]float64 // inputs of the sensitivity sample, while it is drawn again
+	sensOut   [][]float64 // its outputs
 	sensN     int
-	sketches  [][]*stats.Sketch // [worker][output], streaming mode
+	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting
+	selection *selection        // exact order statistics without the trials, or nil
 	converged bool              // a run to a precision reached it
 }
 
@@ -54,18 +55,30 @@ func Estimate(rn *Run, opt Options) (*Result, error) {
 		return nil, err
 	}
 	r := newRun(c, s)
-	if s.streaming {
+	switch {
+	case s.streaming:
 		r.startSketches()
 		err = r.stream()
-	} else {
-		r.exactOut = columns(len(r.specs), s.trials)
-		r.planned = s.trials
-		err = r.batches(0, r.plan.Batches())
+	case s.KeepSamples || s.trials <= sampler.BatchSize:
+		err = r.keepExact()
+	default:
+		err = r.selectExact()
 	}
 	if err != nil {
 		return nil, err
 	}
-	return r.result(), nil
+	return r.result()
+}
+
+// keepExact runs an exact estimate that keeps every trial's outputs.
+func (r *run) keepExact() error {
+	r.sketches, r.selection = nil, nil
+	r.zero.Store(0)
+	r.done.Store(0)
+	r.saturated.Store(0)
+	r.exactOut = columns(len(r.specs), r.s.trials)
+	r.planned = r.s.trials
+	return r.batches(0, r.plan.Batches())
 }
 
 // newRun sets up the draws and the buffers of a run.
@@ -93,16 +106,12 @@ func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 		corr = subMatrix(c.corr, keep)
 	}
 	r.plan = sampler.NewPlan(r.dists, sampler.Config{Trials: s.planTrials, Seed: s.seed, Method: c.run.Sampling,
-		Correlation: corr, PerBatch: s.streaming})
-	// The sensitivity sample is the first trials of the run.
+		Correlation: corr})
+	// The sensitivity sample is the first trials of the run, drawn again
+	// after it unless kept (run.sensitivitySample).
 	r.sensN = min(s.firstRound(), SensitivityTrials)
 	if s.KeepSamples {
 		r.keepIn = columns(len(r.sampled), s.trials)
-	} else {
-		r.sensIn = columns(len(r.sampled), r.sensN)
-	}
-	if s.streaming {
-		r.sensOut = columns(len(r.specs), r.sensN)
 	}
 	return r
 }
@@ -133,13 +142,13 @@ func (r *run) startSketches() {
 }
 
 // result summarises the trials run.
-func (r *run) result() *Result {
+func (r *run) result() (*Result, error) {
 	c, s := r.c, r.s
 	fluid, conv := c.run.Model.Settings()
 	res := &Result{Title: c.run.Title, Path: c.run.Path, SourceSHA256: c.run.SourceSHA256, Kind: c.run.Model.Kind(), Fluid: fluid, Conversion: conv,
 		Trials: r.ranTrials(), Seed: s.seed, Sampling: c.run.Sampling, Confidence: s.stat.Level(),
 		Streaming: s.streaming, Precision: s.Precision, Correlations: c.run.Correlations,
-		PerBatch: c.run.Sampling == sampler.LatinHypercube && s.streaming && s.trials > sampler.BatchSize}
+		PerBatch: c.run.Sampling == sampler.LatinHypercube && s.trials > sampler.BatchSize}
 	if h, ok := c.run.Model.(*HotRock); ok {
 		res.Decline = h.Decline
 	}
@@ -148,9 +157,13 @@ func (r *run) result() *Result {
 	}
 	res.ZeroHeatTrials = int(r.zero.Load())
 	res.SensitivityN = r.sensN
-	// Sensitivity first: it needs the trials in their original order.
-	res.Sensitivity = r.sensitivity()
-	res.Outputs = r.outputs()
+	var err error
+	if res.Sensitivity, err = r.sensitivity(); err != nil {
+		return nil, err
+	}
+	if res.Outputs, err = r.outputs(); err != nil {
+		return nil, err
+	}
 	if s.streaming {
 		res.SketchRelErr = stats.DefaultRelErr
 		res.Converged = r.converged
@@ -162,7 +175,7 @@ func (r *run) result() *Result {
 	if s.KeepSamples {
 		res.Samples = r.samples()
 	}
-	return res
+	return res, nil
 }
 
 // ranTrials returns the number of trials run.
@@ -174,24 +187,28 @@ func (r *run) ranTrials() int {
 }
 
 // outputs summarises every output.
-func (r *run) outputs() []Output {
+func (r *run) outputs() ([]Output, error) {
+	if r.selection != nil {
+		if outs, ok := r.selectedOutputs(); ok {
+			return outs, nil
+		}
+		// A selector missed its rank: run again, keeping every output.
+		if err := r.keepExact(); err != nil {
+			return nil, err
+		}
+	}
 	outs := make([]Output, len(r.specs))
 	if r.sketches != nil {
 		for j, sk := range mergeSketches(r.sketches) {
 			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: curve(sk.Quantile)}
 		}
-		return outs
+		return outs, nil
 	}
 	parallel(len(r.specs), r.s.workers, func(j int) {
-		col := r.exactOut[j]
-		if r.s.KeepSamples {
-			col = append([]float64(nil), col...)
-		}
-		sum := stats.Summarize(col, r.s.stat) // sorts col
-		outs[j] = Output{Spec: r.specs[j], Summary: sum,
-			Curve: curve(func(q float64) float64 { return stats.Quantile(col[sum.NaN:], q) })}
+		sum, c := stats.SummarizeAt(r.exactOut[j], r.s.stat, curveProbabilities)
+		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: c}
 	})
-	return outs
+	return outs, nil
 }
 
 // warnings returns the problems that did not stop the run, each once.
@@ -250,6 +267,16 @@ func (r *run) samples() *Samples {
 	}
 	return smp
 }
+
+// curveProbabilities are the non-exceedance probabilities of an
+// Output.Curve: 0, 0.01, ..., 1.
+var curveProbabilities = func() []float64 {
+	q := make([]float64, CurvePoints)
+	for k := range q {
+		q[k] = float64(k) / (CurvePoints - 1)
+	}
+	return q
+}()
 
 // curve returns quantile(k/100) for k = 0, ..., 100.
 func curve(quantile func(q float64) float64) []float64 {

@@ -191,6 +191,28 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 			}
 		}
 	}
+	// Without KeepSamples an exact run selects its order statistics in one
+	// pass and draws the sensitivity sample again: the same summaries and
+	// sensitivities, bit for bit, as the run that keeps every trial.
+	for _, w := range []int{1, 3} {
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for j := range res.Outputs {
+			a, b := res.Outputs[j].Summary, first.Outputs[j].Summary
+			a.Warnings, b.Warnings = nil, nil
+			if !reflect.DeepEqual(a, b) {
+				t.Errorf("selecting, workers %d: %s summary differs: %+v vs %+v", w, res.Outputs[j].Spec.Name, a, b)
+			}
+		}
+		if !reflect.DeepEqual(res.Sensitivity, first.Sensitivity) {
+			t.Errorf("selecting, workers %d: sensitivities differ from the kept run's", w)
+		}
+		if res.ZeroHeatTrials != first.ZeroHeatTrials {
+			t.Errorf("selecting, workers %d: %d zero-heat trials, kept run %d", w, res.ZeroHeatTrials, first.ZeroHeatTrials)
+		}
+	}
 }
 
 func BenchmarkEstimate(b *testing.B) {

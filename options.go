@@ -10,13 +10,12 @@ import (
 	"rockheat/stats"
 )
 
-// ExactLimit is the largest run whose percentiles are computed exactly
-// from every trial held in memory, and whose Latin hypercube is stratified
-// over all its trials at once; it is also the longest run that can keep
-// every trial (Options.KeepSamples). Longer runs, and runs to a precision,
+// ExactLimit is the largest run whose percentiles are exact order
+// statistics of all its trials (found in one pass, stats.Selector, without
+// holding the trials); it is also the longest run that can keep every
+// trial (Options.KeepSamples). Longer runs, and runs to a precision,
 // stream their outputs into bounded-memory quantile sketches (stats.Sketch,
-// with relative error stats.DefaultRelErr) and stratify their Latin
-// hypercube per batch.
+// with relative error stats.DefaultRelErr).
 const ExactLimit = 1 << 21
 
 // SensitivityTrials is the number of trials, from the start of a run, that
@@ -47,8 +46,8 @@ type Options struct {
 	// MaxTrials caps a run to a precision; 0 means DefaultMaxTrials. It
 	// may not be below the first round.
 	MaxTrials int
-	// Stream forces the bounded-memory route (quantile sketches, Latin
-	// hypercube per batch) for a run short enough to be exact.
+	// Stream forces the sketch route (percentiles within
+	// stats.DefaultRelErr) for a run short enough to be exact.
 	Stream bool
 	// KeepSamples keeps every trial's inputs and outputs in
 	// Result.Samples. Runs longer than ExactLimit cannot keep them.

@@ -143,7 +143,7 @@ func (pr *portfolioRun) setUp() {
 	}
 	for k, d := range c.shared {
 		pr.shared = append(pr.shared, sampler.NewPlan([]sampler.Distribution{d.dist}, sampler.Config{Trials: pr.trials,
-			Seed: mixSeed(pr.seed, sharedStream, uint64(k)), Method: c.p.Sampling, PerBatch: true}))
+			Seed: mixSeed(pr.seed, sharedStream, uint64(k)), Method: c.p.Sampling}))
 	}
 	pr.outcome, pr.outTgt = involved(c.p.Correlations, c.p.Prospects, c.outcome)
 	pr.success, pr.sucTgt = involved(c.p.SuccessCorrelations, c.p.Prospects, c.success)

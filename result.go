@@ -22,8 +22,8 @@ type Result struct {
 	Trials   int // trials run
 	Seed     uint64
 	Sampling sampler.Method
-	// PerBatch is true when the Latin hypercube was stratified batch by
-	// batch rather than over the whole run.
+	// PerBatch is true when a Latin hypercube run had more than one batch:
+	// each batch of sampler.BatchSize trials is stratified on its own.
 	PerBatch bool
 	// Confidence is the requested level of the confidence intervals.
 	Confidence float64
@@ -75,7 +75,10 @@ type Output struct {
 	Summary stats.Summary
 	// Curve holds the output's quantiles at non-exceedance probabilities
 	// 0, 0.01, ..., 1 (Curve[k] is exceeded with probability 1 − k/100,
-	// Curve[10] is the P90): the points of an exceedance curve.
+	// Curve[10] is the P90): the points of an exceedance curve. They are
+	// exact order statistics when the run kept its outputs (a run of one
+	// batch, or KeepSamples); otherwise they come from the quantile sketch,
+	// within stats.DefaultRelErr, while Summary stays exact.
 	Curve []float64
 }
 

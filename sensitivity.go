@@ -3,25 +3,39 @@ package rockheat
 import (
 	"math"
 
+	"rockheat/sampler"
+
 	"rockheat/heatmodel"
 	"rockheat/stats"
 )
 
 // sensitivity ranks every sampled input against every output on the
-// sensitivity sample, and evaluates the one-at-a-time swings.
-func (r *run) sensitivity() []Sensitivity {
+// sensitivity sample, and evaluates the one-at-a-time swings. The sample
+// is the run's first trials: kept ones where the run keeps them, else drawn
+// and evaluated again (the draws depend only on the plan and the batch, so
+// they are the very trials of the run, and the run need not hold them).
+func (r *run) sensitivity() ([]Sensitivity, error) {
 	if len(r.sampled) == 0 || r.sensN < 3 {
-		return nil
+		return nil, nil
 	}
-	sensIn, sensOut := r.sensIn, r.sensOut
-	if r.keepIn != nil {
-		sensIn = prefix(r.keepIn, r.sensN)
+	sensIn, sensOut, err := r.sensitivitySample()
+	if err != nil {
+		return nil, err
 	}
-	if r.exactOut != nil {
-		sensOut = prefix(r.exactOut, r.sensN)
+	// One rank scratch per goroutine, handed round through a channel.
+	scratch := make(chan *stats.RankScratch, max(1, r.s.workers))
+	for range cap(scratch) {
+		scratch <- new(stats.RankScratch)
 	}
-	inRanks := make([][]float64, len(sensIn))
-	parallel(len(sensIn), r.s.workers, func(j int) { inRanks[j] = stats.Ranks(sensIn[j]) })
+	ranked := func(x []float64) []int32 {
+		s := <-scratch
+		defer func() { scratch <- s }()
+		d := make([]int32, len(x))
+		stats.DoubledRanks(x, d, s)
+		return d
+	}
+	inRanks := make([][]int32, len(sensIn))
+	parallel(len(sensIn), r.s.workers, func(j int) { inRanks[j] = ranked(sensIn[j]) })
 	low, high, base := r.swings()
 	index := make(map[string]int, len(r.names))
 	for k, name := range r.names {
@@ -29,15 +43,16 @@ func (r *run) sensitivity() []Sensitivity {
 	}
 	out := make([]Sensitivity, len(r.specs))
 	parallel(len(r.specs), r.s.workers, func(j int) {
+		outRanks := ranked(sensOut[j])
 		// Only the inputs the output's formula uses are ranked.
 		var names []string
-		var ranks [][]float64
+		var ranks [][]int32
 		for k, in := range r.sampled {
 			if r.specs[j].dependsOn(in.Base) {
 				names, ranks = append(names, r.names[k]), append(ranks, inRanks[k])
 			}
 		}
-		infl := stats.RankedSensitivity(names, ranks, stats.Ranks(sensOut[j]))
+		infl := stats.DoubledRankSensitivity(names, ranks, outRanks)
 		sens := Sensitivity{Output: r.specs[j].Name, Base: base[j]}
 		for _, f := range infl {
 			k := index[f.Input]
@@ -45,7 +60,41 @@ func (r *run) sensitivity() []Sensitivity {
 		}
 		out[j] = sens
 	})
-	return out
+	return out, nil
+}
+
+// sensitivitySample returns the inputs and outputs of the run's first
+// sensN trials.
+func (r *run) sensitivitySample() (in, out [][]float64, err error) {
+	if r.keepIn != nil {
+		in = prefix(r.keepIn, r.sensN)
+	}
+	if r.exactOut != nil {
+		out = prefix(r.exactOut, r.sensN)
+	}
+	if in != nil && out != nil {
+		return in, out, nil
+	}
+	// Draw (and, unless kept, evaluate) the sample's batches again into
+	// buffers of their own.
+	r.sensIn = columns(len(r.sampled), r.sensN)
+	if out == nil {
+		r.sensOut = columns(len(r.specs), r.sensN)
+	}
+	defer func() { r.sensIn, r.sensOut = nil, nil }()
+	wk := r.newWorker(0)
+	for b := 0; b*sampler.BatchSize < r.sensN; b++ {
+		if _, _, err := wk.batch(b, nil); err != nil {
+			return nil, nil, err
+		}
+	}
+	if in == nil {
+		in = r.sensIn
+	}
+	if out == nil {
+		out = r.sensOut
+	}
+	return in, out, nil
 }
 
 // swings evaluates the model with each sampled input in turn at its own

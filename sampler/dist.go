@@ -336,3 +336,46 @@ func (t Truncated) Restrict(lo, hi float64) (Truncated, error) {
 	r.label = t.label
 	return r, nil
 }
+
+// Quantiles replaces every p in ps by f.Value.
+func (f Fixed) Quantiles(ps []float64) {
+	for i := range ps {
+		ps[i] = f.Value
+	}
+}
+
+// Quantiles replaces every p in ps by Quantile(p).
+func (u Uniform) Quantiles(ps []float64) {
+	for i, p := range ps {
+		ps[i] = u.Quantile(p)
+	}
+}
+
+// Quantiles replaces every p in ps by Quantile(p).
+func (t Triangular) Quantiles(ps []float64) {
+	for i, p := range ps {
+		ps[i] = t.Quantile(p)
+	}
+}
+
+// Quantiles replaces every p in ps by Quantile(p).
+func (t Truncated) Quantiles(ps []float64) {
+	for i, p := range ps {
+		ps[i] = t.Quantile(p)
+	}
+}
+
+// Quantiles replaces every p in ps by Quantile(p).
+func (d PERT) Quantiles(ps []float64) {
+	for i, p := range ps {
+		ps[i] = d.Quantile(p)
+	}
+}
+
+var (
+	_ SliceQuantiler = Fixed{}
+	_ SliceQuantiler = Uniform{}
+	_ SliceQuantiler = Triangular{}
+	_ SliceQuantiler = Truncated{}
+	_ SliceQuantiler = PERT{}
+)

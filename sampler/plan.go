@@ -43,56 +43,32 @@ type Config struct {
 	// the distributions (in their order), applied batch by batch with the
 	// Iman–Conover method; build it with BuildCorrelation.
 	Correlation *mat.SymDense
-	// PerBatch stratifies a Latin hypercube per batch: each batch is then
-	// an exact Latin hypercube of its trials, and batches are independent
-	// of each other, so a run can be extended batch by batch. Otherwise a
-	// Latin hypercube is stratified over all the trials at once, which
-	// holds a permutation of 4 bytes a trial per distribution in memory;
-	// callers bound such runs (rockheat.ExactLimit).
-	PerBatch bool
 }
 
-// Plan describes the draws of a run. It is safe for concurrent use by
-// several goroutines once built: Fill only reads it.
+// Plan describes the draws of a run. A Latin hypercube is stratified batch
+// by batch: each batch is an exact Latin hypercube of its trials, and
+// batches are independent of each other, so a run can be extended batch
+// by batch and its memory does not grow with its trials. It is safe for
+// concurrent use by several goroutines once built: Fill only reads it.
 type Plan struct {
 	dists  []Distribution
 	trials int
 	seed   uint64
 	method Method
 	corr   *mat.SymDense
-	perm   [][]int32 // global LHS strata, one permutation per input; nil if per batch
 }
 
 // NewPlan returns the plan for cfg.Trials draws of each distribution.
 // It panics if cfg.Trials < 1.
 func NewPlan(dists []Distribution, cfg Config) *Plan {
-	trials, seed := cfg.Trials, cfg.Seed
-	if trials < 1 {
+	if cfg.Trials < 1 {
 		panic("sampler: NewPlan with trials < 1")
 	}
-	p := &Plan{dists: dists, trials: trials, seed: seed, method: cfg.Method, corr: scoresCorrelation(cfg.Correlation)}
-	if cfg.Method == LatinHypercube && !cfg.PerBatch && trials > BatchSize {
-		// One stream per input: the permutations are independent of each
-		// other and are drawn concurrently.
-		p.perm = make([][]int32, len(dists))
-		var wg sync.WaitGroup
-		for j := range dists {
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				p.perm[j] = permutation(rand.New(rand.NewPCG(seed, permStream|uint64(j))), make([]int32, trials))
-			}()
-		}
-		wg.Wait()
-	}
-	return p
+	return &Plan{dists: dists, trials: cfg.Trials, seed: cfg.Seed, method: cfg.Method, corr: scoresCorrelation(cfg.Correlation)}
 }
 
-// Stream tags keep the per-batch and per-input streams apart.
-const (
-	batchStream = 0
-	permStream  = 1 << 63
-)
+// batchStream tags the per-batch streams.
+const batchStream = 0
 
 // Trials returns the number of trials of the plan.
 func (p *Plan) Trials() int { return p.trials }
@@ -109,37 +85,36 @@ func (p *Plan) BatchRange(b int) (start, n int) {
 
 // Fill draws batch b into cols: cols[j][i] is the draw of distribution j
 // in trial start+i, where start and n come from BatchRange. Each column
-// must have length at least n. The draws depend only on the plan and b.
+// must have length at least n. The draws depend only on the plan and b:
+// batch b draws from the stream rand.NewPCG(seed, b), input after input,
+// first each input's probabilities (for a Latin hypercube, a random
+// permutation of the batch's n strata, each with a uniform offset), then
+// their quantiles.
 func (p *Plan) Fill(b int, cols [][]float64) error {
 	if len(cols) != len(p.dists) {
 		panic(fmt.Sprintf("sampler: Fill with %d columns for %d distributions", len(cols), len(p.dists)))
 	}
-	start, n := p.BatchRange(b)
+	_, n := p.BatchRange(b)
 	rng := rand.New(rand.NewPCG(p.seed, batchStream|uint64(b)))
-	var local []int32
+	var perm []int32
+	if p.method != Random {
+		pp := permPool.Get().(*[]int32)
+		defer permPool.Put(pp)
+		if cap(*pp) < n {
+			*pp = make([]int32, n)
+		}
+		perm = (*pp)[:n]
+	}
 	for j, d := range p.dists {
 		col := cols[j][:n]
-		switch {
-		case p.method == Random:
+		if p.method == Random {
 			for i := range col {
-				col[i] = d.Quantile(open01(rng))
+				col[i] = open01(rng)
 			}
-		case p.perm != nil:
-			strata := p.perm[j][start : start+n]
-			inv := 1 / float64(p.trials)
-			for i := range col {
-				col[i] = d.Quantile((float64(strata[i]) + open01(rng)) * inv)
-			}
-		default: // Latin hypercube within this batch
-			if local == nil {
-				local = make([]int32, n)
-			}
-			permutation(rng, local)
-			inv := 1 / float64(n)
-			for i := range col {
-				col[i] = d.Quantile((float64(local[i]) + open01(rng)) * inv)
-			}
+		} else {
+			stratified(rng, col, perm)
 		}
+		quantiles(d, col)
 	}
 	if p.corr != nil && n > 1 {
 		sub := make([][]float64, len(cols))
@@ -151,13 +126,67 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 	return nil
 }
 
+// permPool holds the strata permutations of Fill, one per goroutine at a
+// time.
+var permPool = sync.Pool{New: func() any { return new([]int32) }}
+
+// stratified fills u with a Latin hypercube of probabilities: u[i] =
+// (π(i) + v_i)/n for a random permutation π of the n = len(u) strata and
+// offsets v_i uniform on (0, 1), using perm (of length n) as scratch.
+func stratified(rng *rand.Rand, u []float64, perm []int32) {
+	permutation(rng, perm)
+	inv := 1 / float64(len(u))
+	for i := range u {
+		u[i] = (float64(perm[i]) + open01(rng)) * inv
+	}
+}
+
+// SliceQuantiler is a distribution that maps a slice of probabilities to
+// their quantiles in place, in one loop: faster than a call per draw.
+type SliceQuantiler interface {
+	// Quantiles replaces every p in ps by Quantile(p).
+	Quantiles(ps []float64)
+}
+
+// quantiles replaces every probability in ps by d's quantile of it.
+func quantiles(d Distribution, ps []float64) {
+	if sq, ok := d.(SliceQuantiler); ok {
+		sq.Quantiles(ps)
+		return
+	}
+	for i, p := range ps {
+		ps[i] = d.Quantile(p)
+	}
+}
+
 // permutation fills perm with a uniformly random permutation of
-// 0, 1, ..., len(perm)−1 drawn from rng, and returns it.
+// 0, 1, ..., len(perm)−1 drawn from rng, and returns it: the Fisher–Yates
+// shuffle (Knuth, TAOCP vol. 2, algorithm P), each index drawn by
+// Lemire's multiply-and-reject method (Lemire 2019, "Fast random integer
+// generation in an interval"), exact, from one half of a 64-bit draw.
 func permutation(rng *rand.Rand, perm []int32) []int32 {
 	for i := range perm {
 		perm[i] = int32(i)
 	}
-	rng.Shuffle(len(perm), func(a, b int) { perm[a], perm[b] = perm[b], perm[a] })
+	var pool uint64 // unused 32-bit halves of a draw
+	have := 0
+	for i := len(perm) - 1; i > 0; i-- {
+		bound := uint32(i + 1)
+		var m uint64
+		for {
+			if have == 0 {
+				pool, have = rng.Uint64(), 2
+			}
+			m = uint64(uint32(pool)) * uint64(bound)
+			pool >>= 32
+			have--
+			if lo := uint32(m); lo >= bound || lo >= -bound%bound {
+				break
+			}
+		}
+		j := int32(m >> 32)
+		perm[i], perm[j] = perm[j], perm[i]
+	}
 	return perm
 }
 

@@ -50,16 +50,6 @@ func Ranks(x []float64) []float64 {
 	return r
 }
 
-// RankColumns returns the Ranks of each column, so that a column ranked
-// once can be correlated with several others by CorrelateRanks.
-func RankColumns(cols [][]float64) [][]float64 {
-	r := make([][]float64, len(cols))
-	for i, c := range cols {
-		r[i] = Ranks(c)
-	}
-	return r
-}
-
 // Spearman returns Spearman's rank correlation coefficient of x and y: the
 // Pearson correlation of their ranks (average ranks for ties), in [−1, 1].
 // It is 0 when either column is constant (including n < 2). It panics if
@@ -81,25 +71,17 @@ func CorrelateRanks(rx, ry []float64) float64 {
 	if len(ry) != n {
 		panic("stats: CorrelateRanks of columns of different lengths")
 	}
-	var sxy, sxx, syy int128
-	c := float64(n + 1)
-	for i := range n {
-		dx, dy := 2*rx[i]-c, 2*ry[i]-c // integers in (−n, n)
-		ix, iy := int64(dx), int64(dy)
-		if float64(ix) != dx || float64(iy) != dy || dx <= -float64(n) || dx >= float64(n) ||
-			dy <= -float64(n) || dy >= float64(n) {
-			panic("stats: CorrelateRanks of values that are not ranks")
+	doubled := func(r []float64) []int32 {
+		d := make([]int32, n)
+		for i, v := range r {
+			d[i] = int32(2 * v)
+			if float64(d[i]) != 2*v || v < 1 || v > float64(n) {
+				panic("stats: CorrelateRanks of values that are not ranks")
+			}
 		}
-		sxy.add(ix * iy)
-		sxx.add(ix * ix)
-		syy.add(iy * iy)
+		return d
 	}
-	vx, vy := sxx.float(), syy.float()
-	if vx == 0 || vy == 0 {
-		return 0
-	}
-	r := sxy.float() / math.Sqrt(vx*vy) // exactly ±1 for equal or reversed ranks
-	return math.Max(-1, math.Min(1, r))
+	return CorrelateDoubledRanks(doubled(rx), doubled(ry))
 }
 
 // int128 is a two's-complement 128-bit accumulator.
@@ -148,19 +130,28 @@ func RankSensitivity(names []string, inputs [][]float64, output []float64) []Inf
 	if len(names) != len(inputs) {
 		panic("stats: RankSensitivity with different numbers of names and inputs")
 	}
-	return RankedSensitivity(names, RankColumns(inputs), Ranks(output))
+	var s RankScratch
+	ranked := func(x []float64) []int32 {
+		d := make([]int32, len(x))
+		DoubledRanks(x, d, &s)
+		return d
+	}
+	in := make([][]int32, len(inputs))
+	for i, x := range inputs {
+		if len(x) != len(output) {
+			panic("stats: RankSensitivity with columns of different lengths")
+		}
+		in[i] = ranked(x)
+	}
+	return DoubledRankSensitivity(names, in, ranked(output))
 }
 
-// RankedSensitivity is RankSensitivity for columns already ranked by Ranks
-// or RankColumns, so that the inputs are ranked once for several outputs.
-func RankedSensitivity(names []string, inputRanks [][]float64, outputRanks []float64) []Influence {
-	if len(names) != len(inputRanks) {
-		panic("stats: RankedSensitivity with different numbers of names and inputs")
-	}
+// influences returns the Influences of inputs names with rank correlations
+// rhos, sorted by |RankCorrelation| descending, ties by name.
+func influences(names []string, rhos []float64) []Influence {
 	inf := make([]Influence, len(names))
 	var ss float64
-	for i, r := range inputRanks {
-		rho := CorrelateRanks(r, outputRanks)
+	for i, rho := range rhos {
 		inf[i] = Influence{Input: names[i], RankCorrelation: rho}
 		ss += rho * rho
 	}
@@ -176,4 +167,83 @@ func RankedSensitivity(names []string, inputRanks [][]float64, outputRanks []flo
 		return cmp.Compare(a.Input, b.Input)
 	})
 	return inf
+}
+
+// RankScratch holds the buffers of DoubledRanks, reused call after call.
+// The zero value is ready; a RankScratch is not safe for concurrent use.
+type RankScratch struct {
+	keys, kbuf []uint64
+	idx, ibuf  []int32
+}
+
+// DoubledRanks writes twice the ranks of x (the average ranks of Ranks,
+// so whole numbers 2 … 2n) into dst, which must have len(x) elements, using
+// s's buffers: a quarter of the memory of Ranks, and none allocated once s
+// has held as many values. It panics if x holds a NaN or dst is short.
+func DoubledRanks(x []float64, dst []int32, s *RankScratch) {
+	n := len(x)
+	if len(dst) < n {
+		panic("stats: DoubledRanks with a short destination")
+	}
+	if cap(s.keys) < n {
+		s.keys, s.kbuf = make([]uint64, n), make([]uint64, n)
+		s.idx, s.ibuf = make([]int32, n), make([]int32, n)
+	}
+	keys, idx := s.keys[:n], s.idx[:n]
+	for i, v := range x {
+		if v != v {
+			panic("stats: DoubledRanks of a column with NaN; drop the NaN trials first")
+		}
+		keys[i] = radix.Key(v)
+		idx[i] = int32(i)
+	}
+	keys, idx = radix.Sort(keys, s.kbuf[:n], 0, idx, s.ibuf[:n])
+	for a := 0; a < n; {
+		b := a + 1
+		for b < n && radix.Float(keys[b]) == radix.Float(keys[a]) { // −0 ties +0
+			b++
+		}
+		for _, j := range idx[a:b] {
+			dst[j] = int32(a + b + 1) // twice the mean of the ranks a+1 … b
+		}
+		a = b
+	}
+}
+
+// CorrelateDoubledRanks returns the Pearson correlation of two columns of
+// DoubledRanks, which is Spearman's coefficient of the ranked values
+// (CorrelateRanks, with the same exact integer sums). It panics if the
+// lengths differ.
+func CorrelateDoubledRanks(dx, dy []int32) float64 {
+	n := len(dx)
+	if len(dy) != n {
+		panic("stats: CorrelateDoubledRanks of columns of different lengths")
+	}
+	var sxy, sxx, syy int128
+	c := int64(n + 1)
+	for i := range n {
+		ix, iy := int64(dx[i])-c, int64(dy[i])-c // integers in (−n, n)
+		sxy.add(ix * iy)
+		sxx.add(ix * ix)
+		syy.add(iy * iy)
+	}
+	vx, vy := sxx.float(), syy.float()
+	if vx == 0 || vy == 0 {
+		return 0
+	}
+	r := sxy.float() / math.Sqrt(vx*vy) // exactly ±1 for equal or reversed ranks
+	return math.Max(-1, math.Min(1, r))
+}
+
+// DoubledRankSensitivity is RankSensitivity for columns already ranked
+// by DoubledRanks, so that the inputs are ranked once for several outputs.
+func DoubledRankSensitivity(names []string, inputRanks [][]int32, outputRanks []int32) []Influence {
+	if len(names) != len(inputRanks) {
+		panic("stats: DoubledRankSensitivity with different numbers of names and inputs")
+	}
+	rhos := make([]float64, len(names))
+	for i, r := range inputRanks {
+		rhos[i] = CorrelateDoubledRanks(r, outputRanks)
+	}
+	return influences(names, rhos)
 }

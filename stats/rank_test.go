@@ -195,10 +195,12 @@ func TestRankSensitivity(t *testing.T) {
 		}
 	}
 
-	// Ranking once and reusing the ranks gives the same result.
-	ranks := RankColumns([][]float64{x3, x2, x1})
-	if g := RankedSensitivity([]string{"X3", "X2", "X1"}, ranks, Ranks(y)); !slices.Equal(g, got) {
-		t.Errorf("RankedSensitivity %v, want %v", g, got)
+	// The correlations are Spearman's, computed from average ranks.
+	for _, f := range got {
+		x := map[string][]float64{"X1": x1, "X2": x2, "X3": x3}[f.Input]
+		if r := Spearman(x, y); r != f.RankCorrelation {
+			t.Errorf("%s: rank correlation %v, Spearman %v", f.Input, f.RankCorrelation, r)
+		}
 	}
 }
 
@@ -236,5 +238,36 @@ func TestCorrelateRanksPanics(t *testing.T) {
 			}()
 			CorrelateRanks(tc.rx, tc.ry)
 		}()
+	}
+}
+
+// TestDoubledRanks checks DoubledRanks against Ranks (twice its values)
+// and CorrelateDoubledRanks against CorrelateRanks (identical bits), with
+// ties, both zeros and both sort paths, reusing one scratch.
+func TestDoubledRanks(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(7, 8))
+	var s RankScratch
+	for _, n := range []int{1, 3, 100, 5000, 70000} {
+		x, y := make([]float64, n), make([]float64, n)
+		for i := range x {
+			x[i] = float64(rng.IntN(50)) - 25 // ties, and zeros
+			if i%7 == 0 {
+				x[i] = math.Copysign(0, -1)
+			}
+			y[i] = x[i]*0.5 + rng.NormFloat64()
+		}
+		dx, dy := make([]int32, n), make([]int32, n)
+		DoubledRanks(x, dx, &s)
+		DoubledRanks(y, dy, &s)
+		rx, ry := Ranks(x), Ranks(y)
+		for i := range rx {
+			if float64(dx[i]) != 2*rx[i] {
+				t.Fatalf("n = %d: doubled rank %d of %v, rank %v", n, dx[i], x[i], rx[i])
+			}
+		}
+		if a, b := CorrelateDoubledRanks(dx, dy), CorrelateRanks(rx, ry); math.Float64bits(a) != math.Float64bits(b) {
+			t.Errorf("n = %d: %v from doubled ranks, %v from ranks", n, a, b)
+		}
 	}
 }

@@ -32,10 +32,12 @@ func Float(k uint64) float64 {
 	return math.Float64frombits(^k)
 }
 
-// Float64s sorts x, which holds no NaN, in ascending order.
+// Float64s sorts x, which holds no NaN, in ascending order, −0 before +0
+// (the order of Key) whatever its length.
 func Float64s(x []float64) {
 	if len(x) < MinLen {
 		slices.Sort(x)
+		signZeros(x)
 		return
 	}
 	keys := make([]uint64, len(x))
@@ -95,4 +97,23 @@ func Sort(keys, buf []uint64, from int, idx, ibuf []int32) ([]uint64, []int32) {
 		keys, buf = buf, keys
 	}
 	return keys, idx
+}
+
+// signZeros puts the −0s of sorted x before its +0s: a comparison sort
+// holds them equal and leaves them in any order.
+func signZeros(x []float64) {
+	lo, _ := slices.BinarySearch(x, 0) // the first zero, if any
+	neg := 0
+	hi := lo
+	for ; hi < len(x) && x[hi] == 0; hi++ {
+		if math.Signbit(x[hi]) {
+			neg++
+		}
+	}
+	for i := lo; i < hi; i++ {
+		x[i] = 0
+		if i < lo+neg {
+			x[i] = math.Copysign(0, -1)
+		}
+	}
 }

@@ -1,0 +1,80 @@
+package rockheat
+
+import (
+	"rockheat/stats"
+)
+
+// selection is the state of an exact run that does not keep its trials:
+// every output streams into its sketch and, for its exact order
+// statistics, into a stats.Selector bracketed from the first batch.
+type selection struct {
+	sels  []*stats.Selector       // [output]
+	parts [][]*stats.SelectorPart // [worker][output]
+}
+
+// selectExact runs an exact estimate that keeps no trial: batch 0 first,
+// as the pilot of every output's selector, then the others on the
+// workers. Should a selector's brackets miss (a chance below 1e-11), the
+// run is made again keeping every output.
+func (r *run) selectExact() error {
+	r.startSketches()
+	r.planned = r.s.trials
+	wk := r.newWorker(0)
+	n, z, err := wk.batch(0, nil)
+	if err != nil {
+		return err
+	}
+	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
+	for j := range r.specs {
+		sel.sels = append(sel.sels, stats.NewSelector(r.s.trials, r.s.stat, wk.out[j][:n]))
+	}
+	for w := range sel.parts {
+		for _, s := range sel.sels {
+			sel.parts[w] = append(sel.parts[w], s.Part())
+		}
+	}
+	r.selection = sel
+	r.add(wk, n, z)
+	return r.batches(1, r.plan.Batches())
+}
+
+// add adds a worker's batch of n trials, z without heat, to the run's
+// sketches, selectors and counts.
+func (r *run) add(wk *worker, n, z int) {
+	for j := range r.specs {
+		if r.sketches != nil {
+			r.sketches[wk.w][j].AddSlice(wk.out[j])
+		}
+		if r.selection != nil {
+			r.selection.parts[wk.w][j].AddSlice(wk.out[j])
+		}
+	}
+	r.saturated.Add(int64(wk.ev.saturated()))
+	r.zero.Add(int64(z))
+	d := r.done.Add(int64(n))
+	if r.s.Progress != nil {
+		r.progMu.Lock()
+		r.s.Progress(int(d), r.planned)
+		r.progMu.Unlock()
+	}
+}
+
+// selectedOutputs summarises the outputs of a selectExact run: exact
+// order statistics from the selectors, moments from the sketches, and
+// the exceedance curve from the sketches (within their relative error).
+// It returns false when a selector missed.
+func (r *run) selectedOutputs() ([]Output, bool) {
+	outs := make([]Output, len(r.specs))
+	for j, sk := range mergeSketches(r.sketches) {
+		parts := make([]*stats.SelectorPart, len(r.selection.parts))
+		for w := range parts {
+			parts[w] = r.selection.parts[w][j]
+		}
+		sum, ok := r.selection.sels[j].Summary(sk, parts)
+		if !ok {
+			return nil, false
+		}
+		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: curve(sk.Quantile)}
+	}
+	return outs, true
+}

@@ -1,0 +1,193 @@
+package stats
+
+import (
+	"math"
+	"slices"
+
+	"rockheat/stats/radix"
+)
+
+// Selector finds, in one streaming pass over n values, the exact order
+// statistics that a Summary needs, without keeping the values: from a
+// pilot sample of the same values it brackets each needed rank with a
+// range of values wide enough to hold it with overwhelming probability,
+// gathers the values inside the brackets and counts those below them, and
+// after the pass reads each order statistic from its sorted bracket. A
+// bracket holds a few per cent of the values.
+//
+// A pass is split into SelectorParts, one per goroutine, each fed its
+// share of the values in any order; the result does not depend on the
+// split. When a needed rank falls outside its bracket (the pilot misled;
+// with brackets 7 pilot standard errors wide, a chance below 1e-11),
+// Summary says so and the caller summarises another way (a second pass,
+// SummarizeAt).
+type Selector struct {
+	n        int
+	level    float64
+	ranks    []int       // the order statistics needed, sorted
+	brackets [][2]uint64 // [lo, hi] in radix.Key order, sorted, disjoint
+}
+
+// NewSelector returns a selector for a pass over n values whose
+// summary's intervals are at opt's level, bracketing from pilot, a random
+// sample of the values (not changed). It panics if opt is invalid or n < 1
+// or the pilot is empty.
+func NewSelector(n int, opt Options, pilot []float64) *Selector {
+	level := opt.Level()
+	if n < 1 || len(pilot) == 0 {
+		panic("stats: NewSelector with no values or no pilot")
+	}
+	s := &Selector{n: n, level: level, ranks: summaryRanks(n, level)}
+	keys := make([]uint64, 0, len(pilot))
+	for _, v := range pilot {
+		if v == v {
+			keys = append(keys, radix.Key(v))
+		}
+	}
+	slices.Sort(keys)
+	m := float64(len(keys))
+	for _, r := range s.ranks {
+		if r == 0 || r == n-1 {
+			continue // the extremes are tracked exactly
+		}
+		p := float64(r) / float64(n-1)
+		d := 7*math.Sqrt(p*(1-p)/m) + 2/m
+		lo, hi := uint64(0), uint64(math.MaxUint64)
+		if k := int(math.Floor((p - d) * (m - 1))); k >= 0 {
+			lo = keys[k]
+		}
+		if k := int(math.Ceil((p + d) * (m - 1))); k < len(keys) {
+			hi = keys[k]
+		}
+		s.brackets = append(s.brackets, [2]uint64{lo, hi})
+	}
+	// Merge overlapping brackets.
+	slices.SortFunc(s.brackets, func(a, b [2]uint64) int {
+		switch {
+		case a[0] < b[0]:
+			return -1
+		case a[0] > b[0]:
+			return 1
+		}
+		return 0
+	})
+	merged := s.brackets[:0]
+	for _, b := range s.brackets {
+		if k := len(merged); k > 0 && b[0] <= merged[k-1][1] {
+			merged[k-1][1] = max(merged[k-1][1], b[1])
+			continue
+		}
+		merged = append(merged, b)
+	}
+	s.brackets = merged
+	return s
+}
+
+// summaryRanks returns the order statistics a Summary of n values needs
+// at the level: the extremes, those of the type-7 P90, P50 and P10, and
+// the ends of their intervals.
+func summaryRanks(n int, level float64) []int {
+	ranks := []int{0, n - 1}
+	for _, q := range []float64{0.1, 0.5, 0.9} {
+		lo, f := position(n, q)
+		ranks = append(ranks, lo)
+		if f > 0 {
+			ranks = append(ranks, lo+1)
+		}
+		l, h, _ := QuantileBounds(n, q, level)
+		ranks = append(ranks, l, h)
+	}
+	slices.Sort(ranks)
+	return slices.Compact(ranks)
+}
+
+// SelectorPart is one goroutine's share of a Selector's pass. It is not
+// safe for concurrent use.
+type SelectorPart struct {
+	s          *Selector
+	gaps       []int       // values in the gap below each bracket, and above the last
+	inside     [][]float64 // values inside each bracket
+	minK, maxK uint64      // the extremes, in radix.Key order
+	n          int
+}
+
+// Part returns a new part of the pass.
+func (s *Selector) Part() *SelectorPart {
+	return &SelectorPart{s: s, gaps: make([]int, len(s.brackets)+1), inside: make([][]float64, len(s.brackets)),
+		minK: math.MaxUint64}
+}
+
+// AddSlice adds the values x (NaNs are left out, as in Summarize).
+func (p *SelectorPart) AddSlice(x []float64) {
+	br := p.s.brackets
+	for _, v := range x {
+		if v != v {
+			continue
+		}
+		k := radix.Key(v)
+		p.minK, p.maxK = min(p.minK, k), max(p.maxK, k)
+		p.n++
+		b := 0
+		for b < len(br) && k > br[b][1] {
+			b++
+		}
+		if b < len(br) && k >= br[b][0] {
+			p.inside[b] = append(p.inside[b], v)
+		} else {
+			p.gaps[b]++
+		}
+	}
+}
+
+// Summary returns the exact Summary of the values the parts were fed, with
+// the moments and NaN count of sk (a sketch of the same values), as
+// Summarize would give, and true; or false when a needed order statistic
+// lies outside its bracket.
+func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
+	n := int(sk.n)
+	if n != s.n {
+		panic("stats: Selector.Summary with a sketch of another count")
+	}
+	below := make([]int, len(s.brackets))
+	inside := make([][]float64, len(s.brackets))
+	minK, maxK := uint64(math.MaxUint64), uint64(0)
+	for _, p := range parts {
+		run := 0 // values below bracket b in this part
+		for b := range s.brackets {
+			run += p.gaps[b]
+			below[b] += run
+			inside[b] = append(inside[b], p.inside[b]...)
+			run += len(p.inside[b])
+		}
+		if p.n > 0 {
+			minK, maxK = min(minK, p.minK), max(maxK, p.maxK)
+		}
+	}
+	for _, vs := range inside {
+		sortKeyed(vs)
+	}
+	stat := map[int]float64{0: radix.Float(minK), n - 1: radix.Float(maxK)}
+	for _, r := range s.ranks {
+		if r == 0 || r == n-1 {
+			continue
+		}
+		found := false
+		for b := range s.brackets {
+			if off := r - below[b]; off >= 0 && off < len(inside[b]) {
+				stat[r], found = inside[b][off], true
+				break
+			}
+		}
+		if !found {
+			return Summary{}, false
+		}
+	}
+	at := func(i int) float64 {
+		v, ok := stat[i]
+		if !ok {
+			panic("stats: Selector asked for an order statistic it did not bracket")
+		}
+		return v
+	}
+	return build(n, int(sk.nan), at, sk.mom, s.level), true
+}
