@@ -132,22 +132,30 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 		return n, 0, err
 	}
 	for j, sp := range r.specs {
-		if sp.Scale != 1 {
-			inv := 1 / sp.Scale
-			for i := range wk.out[j] {
-				wk.out[j][i] *= inv
-			}
-		}
-		if sp.Offset != 0 {
-			for i := range wk.out[j] {
-				wk.out[j][i] -= sp.Offset
-			}
-		}
-		if i := firstNonFinite(wk.out[j]); i >= 0 {
+		if i := toReportUnit(wk.out[j], sp); i >= 0 {
 			return n, 0, wk.trialError(start, i, j)
 		}
 	}
 	return n, z, nil
+}
+
+// toReportUnit converts the SI values x of output sp to its report unit,
+// x/Scale − Offset, in one pass, and returns the index of the first value
+// that is infinite or NaN, or −1.
+func toReportUnit(x []float64, sp OutputSpec) int {
+	inv, off := 1/sp.Scale, sp.Offset
+	nan := 0.0 // becomes NaN, and stays so, at the first value not finite
+	for i, v := range x {
+		// The conversion rounds the product, so that it is not fused with
+		// the subtraction; each step is exact for Scale 1 or Offset 0.
+		v = float64(v*inv) - off
+		x[i] = v
+		nan += v - v // ±Inf − ±Inf and NaN − NaN are NaN
+	}
+	if nan == nan {
+		return -1
+	}
+	return firstNonFinite(x)
 }
 
 // drawn returns the columns of the batch's inputs that the plan draws.

@@ -34,8 +34,8 @@ type run struct {
 	progMu    sync.Mutex
 	keepIn    [][]float64 // every trial's inputs (KeepSamples), or nil
 	exactOut  [][]float64 // every trial's outputs (exact mode), or nil
-	sensIn    [][]float64 // inputs of the sensitivity sample, while it is drawn again
-	sensOut   [][]float64 // its outputs
+	sensIn    [][]float64 // inputs of the sensitivity sample, unless keepIn holds them
+	sensOut   [][]float64 // its outputs, unless exactOut holds them
 	sensN     int
 	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting
 	selection *selection        // exact order statistics without the trials, or nil
@@ -59,7 +59,7 @@ func Estimate(rn *Run, opt Options) (*Result, error) {
 	case s.streaming:
 		r.startSketches()
 		err = r.stream()
-	case s.KeepSamples || s.trials <= sampler.BatchSize:
+	case s.keepsOutputs():
 		err = r.keepExact()
 	default:
 		err = r.selectExact()
@@ -107,11 +107,16 @@ func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 	}
 	r.plan = sampler.NewPlan(r.dists, sampler.Config{Trials: s.planTrials, Seed: s.seed, Method: c.run.Sampling,
 		Correlation: corr})
-	// The sensitivity sample is the first trials of the run, drawn again
-	// after it unless kept (run.sensitivitySample).
+	// The sensitivity sample is the first batch of the run (all of a
+	// shorter one), held where the run does not keep every trial.
 	r.sensN = min(s.firstRound(), SensitivityTrials)
 	if s.KeepSamples {
 		r.keepIn = columns(len(r.sampled), s.trials)
+	} else {
+		r.sensIn = columns(len(r.sampled), r.sensN)
+	}
+	if !s.keepsOutputs() {
+		r.sensOut = columns(len(r.specs), r.sensN)
 	}
 	return r
 }
@@ -157,10 +162,8 @@ func (r *run) result() (*Result, error) {
 	}
 	res.ZeroHeatTrials = int(r.zero.Load())
 	res.SensitivityN = r.sensN
+	res.Sensitivity = r.sensitivity()
 	var err error
-	if res.Sensitivity, err = r.sensitivity(); err != nil {
-		return nil, err
-	}
 	if res.Outputs, err = r.outputs(); err != nil {
 		return nil, err
 	}

@@ -19,8 +19,10 @@ import (
 const ExactLimit = 1 << 21
 
 // SensitivityTrials is the number of trials, from the start of a run, that
-// rank-correlation sensitivity is computed on: all of them in a shorter run.
-const SensitivityTrials = 2 * sampler.BatchSize
+// rank-correlation sensitivity is computed on: the first batch, or all of
+// a shorter run. The standard error of a rank correlation near 0 over
+// them is about 1/sqrt(SensitivityTrials) = 0.004.
+const SensitivityTrials = sampler.BatchSize
 
 // DefaultMaxTrials caps a run to a precision when Options.MaxTrials is 0.
 const DefaultMaxTrials = 100_000_000
@@ -131,6 +133,12 @@ func resolveOptions(c *checked, opt Options) (*settings, error) {
 		return nil, optionErrorf([]string{"KeepSamples"}, "keeping every trial works for runs of up to %d trials; this run has %d: use fewer trials, or do not keep the trials", ExactLimit, s.trials)
 	}
 	return s, nil
+}
+
+// keepsOutputs reports whether the run holds every trial's outputs: an
+// exact run that keeps its trials or has only one batch.
+func (s *settings) keepsOutputs() bool {
+	return !s.streaming && (s.KeepSamples || s.trials <= sampler.BatchSize)
 }
 
 // firstRound returns the trials of the first round: the whole run, or, to

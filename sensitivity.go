@@ -3,25 +3,26 @@ package rockheat
 import (
 	"math"
 
-	"rockheat/sampler"
-
 	"rockheat/heatmodel"
 	"rockheat/stats"
 )
 
 // sensitivity ranks every sampled input against every output on the
-// sensitivity sample, and evaluates the one-at-a-time swings. The sample
-// is the run's first trials: kept ones where the run keeps them, else drawn
-// and evaluated again (the draws depend only on the plan and the batch, so
-// they are the very trials of the run, and the run need not hold them).
-func (r *run) sensitivity() ([]Sensitivity, error) {
+// sensitivity sample, the run's first sensN trials, and evaluates the
+// one-at-a-time swings.
+func (r *run) sensitivity() []Sensitivity {
 	if len(r.sampled) == 0 || r.sensN < 3 {
-		return nil, nil
+		return nil
 	}
-	sensIn, sensOut, err := r.sensitivitySample()
-	if err != nil {
-		return nil, err
+	sensIn, sensOut := r.keepIn, r.exactOut
+	if sensIn == nil {
+		sensIn = r.sensIn
 	}
+	if sensOut == nil {
+		sensOut = r.sensOut
+	}
+	sensIn, sensOut = prefix(sensIn, r.sensN), prefix(sensOut, r.sensN)
+	r.sensIn, r.sensOut = nil, nil // no longer needed once ranked
 	// One rank scratch per goroutine, handed round through a channel.
 	scratch := make(chan *stats.RankScratch, max(1, r.s.workers))
 	for range cap(scratch) {
@@ -60,41 +61,7 @@ func (r *run) sensitivity() ([]Sensitivity, error) {
 		}
 		out[j] = sens
 	})
-	return out, nil
-}
-
-// sensitivitySample returns the inputs and outputs of the run's first
-// sensN trials.
-func (r *run) sensitivitySample() (in, out [][]float64, err error) {
-	if r.keepIn != nil {
-		in = prefix(r.keepIn, r.sensN)
-	}
-	if r.exactOut != nil {
-		out = prefix(r.exactOut, r.sensN)
-	}
-	if in != nil && out != nil {
-		return in, out, nil
-	}
-	// Draw (and, unless kept, evaluate) the sample's batches again into
-	// buffers of their own.
-	r.sensIn = columns(len(r.sampled), r.sensN)
-	if out == nil {
-		r.sensOut = columns(len(r.specs), r.sensN)
-	}
-	defer func() { r.sensIn, r.sensOut = nil, nil }()
-	wk := r.newWorker(0)
-	for b := 0; b*sampler.BatchSize < r.sensN; b++ {
-		if _, _, err := wk.batch(b, nil); err != nil {
-			return nil, nil, err
-		}
-	}
-	if in == nil {
-		in = r.sensIn
-	}
-	if out == nil {
-		out = r.sensOut
-	}
-	return in, out, nil
+	return out
 }
 
 // swings evaluates the model with each sampled input in turn at its own

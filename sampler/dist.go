@@ -168,8 +168,9 @@ func newTruncated(base cdfQuantiler, lo, hi float64, name string) (Truncated, er
 // Quantile returns the p-quantile of the truncated distribution.
 func (t Truncated) Quantile(p float64) float64 {
 	x := t.base.Quantile(t.flo + p*t.width)
-	// Guard against rounding just past a limit.
-	return math.Min(math.Max(x, t.lo), t.hi)
+	// Guard against rounding just past a limit. The built-in min and max
+	// order ±0 and NaN as math.Min and math.Max do, without a call.
+	return min(max(x, t.lo), t.hi)
 }
 
 // CDF returns P(X ≤ x) of the truncated distribution.
@@ -213,7 +214,7 @@ func NewNormal(mean, sd, lo, hi float64) (Truncated, error) {
 	if !(sd > 0) {
 		return Truncated{}, fmt.Errorf("sd = %g must be > 0; for a fixed value give a plain number", sd)
 	}
-	return newTruncated(distuv.Normal{Mu: mean, Sigma: sd}, lo, hi, fmt.Sprintf("normal(mean %g, sd %g)", mean, sd))
+	return newTruncated(normal{mu: mean, sigma: sd}, lo, hi, fmt.Sprintf("normal(mean %g, sd %g)", mean, sd))
 }
 
 // z90 is the standard normal 0.9 quantile, Φ⁻¹(0.9).
@@ -262,14 +263,14 @@ func NewLogNormal(mu, sigma, lo, hi float64) (Truncated, error) {
 		lo = 0
 	}
 	name := fmt.Sprintf("lognormal(median %.4g, sigma of ln %.4g)", math.Exp(mu), sigma)
-	return newTruncated(logNormal{distuv.LogNormal{Mu: mu, Sigma: sigma}, distuv.Normal{Mu: mu, Sigma: sigma}}, lo, hi, name)
+	return newTruncated(logNormal{distuv.LogNormal{Mu: mu, Sigma: sigma}, normal{mu: mu, sigma: sigma}}, lo, hi, name)
 }
 
 // logNormal samples by exp(Φ⁻¹) which is faster than distuv.LogNormal's
 // Quantile and identical in value; CDF is distuv's.
 type logNormal struct {
 	ln distuv.LogNormal
-	n  distuv.Normal
+	n  normal
 }
 
 func (l logNormal) CDF(x float64) float64 {
@@ -360,6 +361,13 @@ func (t Triangular) Quantiles(ps []float64) {
 
 // Quantiles replaces every p in ps by Quantile(p).
 func (t Truncated) Quantiles(ps []float64) {
+	if n, ok := t.base.(normal); ok { // the common case, without an interface call
+		for i, p := range ps {
+			x := n.mu + n.sigma*normalQuantile(t.flo+p*t.width)
+			ps[i] = min(max(x, t.lo), t.hi)
+		}
+		return
+	}
 	for i, p := range ps {
 		ps[i] = t.Quantile(p)
 	}

@@ -101,7 +101,7 @@ func TestPERTQuantileTable(t *testing.T) {
 		a, b := d.Shape()
 		ref := distuv.Beta{Alpha: a, Beta: b}
 		worst := 0.0
-		if d.tab.lo.direct == nil || d.tab.hi.direct == nil {
+		if d.tab.lo.direct.node == nil || d.tab.hi.direct.node == nil {
 			t.Errorf("pert(%g, %g, %g): no direct table; its bound is not tested", c.min, c.mode, c.max)
 		}
 		probes := append(grid(2001), 1e-12, 1e-9, 1e-7, 1e-5, 1-1e-5, 1-1e-7, 1-1e-9)
@@ -110,7 +110,7 @@ func TestPERTQuantileTable(t *testing.T) {
 			probes = append(probes, directLo+rng.Float64()*(0.5-directLo), 1-directLo-rng.Float64()*(0.5-directLo))
 		}
 		for k := 0; k <= directCells; k += 97 {
-			pk := directLo + float64(k)*directStep
+			pk := directLo + float64(k)*d.tab.lo.direct.step
 			probes = append(probes, pk, math.Nextafter(pk, 0), 1-pk)
 		}
 		for _, p := range probes {

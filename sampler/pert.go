@@ -59,8 +59,8 @@ type halfTable struct {
 	start []uint16
 	scale float64
 	// direct tabulates the middle of the half, p in [directLo, 1/2], on
-	// equal steps of p (see tabulateDirect); nil when it is not used.
-	direct []pertNode
+	// equal steps of p (see tabulateDirect); without nodes when not used.
+	direct hermiteTable
 }
 
 // The direct table of a half: directCells equal steps of p from directLo
@@ -71,7 +71,6 @@ type halfTable struct {
 const (
 	directLo    = 1.0 / 32
 	directCells = 8192
-	directStep  = (0.5 - directLo) / directCells
 )
 
 type pertNode struct{ t, x, s float64 }
@@ -137,30 +136,21 @@ func (h *halfTable) bucket(t float64) int {
 // from the t-table and its slope dx/dp = 1/pdf(x) (ref is the half's beta
 // distribution). A table whose nodes do not increase is left out.
 func (h *halfTable) tabulateDirect(ref distuv.Beta) {
-	d := make([]pertNode, directCells+1)
-	for k := range d {
-		p := directLo + float64(k)*directStep
+	density := newBetaDensity(ref)
+	d, ok := newHermiteTable(directLo, 0.5, directCells, func(p float64) (float64, float64) {
 		x := h.quantileT(p)
-		pdf := ref.Prob(x)
-		if !(pdf > 0) || (k > 0 && !(x > d[k-1].x)) {
-			return
-		}
-		d[k] = pertNode{t: p, x: x, s: 1 / pdf}
+		return x, 1 / density.prob(x)
+	})
+	if ok {
+		h.direct = d
 	}
-	h.direct = d
 }
 
 // quantile returns the p-quantile, p in [0, 1/2]: from the direct table
 // in its range, else from the t-table.
 func (h *halfTable) quantile(p float64) float64 {
-	if p >= directLo && h.direct != nil {
-		v := (p - directLo) * (1 / directStep)
-		k := min(int(v), directCells-1)
-		u := v - float64(k)
-		n0, n1 := h.direct[k], h.direct[k+1]
-		u2, u3 := u*u, u*u*u
-		x := (2*u3-3*u2+1)*n0.x + (u3-2*u2+u)*directStep*n0.s + (-2*u3+3*u2)*n1.x + (u3-u2)*directStep*n1.s
-		return min(max(x, n0.x), n1.x)
+	if p >= directLo && h.direct.node != nil {
+		return h.direct.at(p)
 	}
 	return h.quantileT(p)
 }
@@ -256,4 +246,33 @@ func (d PERT) Outside(lo, hi float64) float64 { return outside(d.CDF, lo, hi) }
 
 func (d PERT) String() string {
 	return fmt.Sprintf("pert(min %g, mode %g, max %g)", d.min, d.mode, d.max)
+}
+
+// betaDensity is distuv.Beta.Prob with its log-normaliser computed once
+// (the same expression in the same order, so bit for bit the same value):
+// building a direct table calls it thousands of times.
+type betaDensity struct {
+	a, b, logNorm float64
+}
+
+func newBetaDensity(d distuv.Beta) betaDensity {
+	lab, _ := math.Lgamma(d.Alpha + d.Beta)
+	la, _ := math.Lgamma(d.Alpha)
+	lb, _ := math.Lgamma(d.Beta)
+	return betaDensity{a: d.Alpha, b: d.Beta, logNorm: lab - la - lb}
+}
+
+// prob returns the density at x in [0, 1].
+func (d betaDensity) prob(x float64) float64 {
+	if x < 0 || x > 1 {
+		return 0
+	}
+	var lx, l1mx float64
+	if d.a != 1 {
+		lx = (d.a - 1) * math.Log(x)
+	}
+	if d.b != 1 {
+		l1mx = (d.b - 1) * math.Log(1-x)
+	}
+	return math.Exp(d.logNorm + lx + l1mx)
 }

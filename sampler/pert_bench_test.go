@@ -7,7 +7,7 @@ import (
 
 // benchProbs returns n probabilities in (0, 1) drawn as Fill draws them.
 func benchProbs(n int) []float64 {
-	rng := rand.New(rand.NewPCG(1, 1))
+	rng := rand.NewPCG(1, 1)
 	p := make([]float64, n)
 	for i := range p {
 		p[i] = open01(rng)

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"sync"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -86,59 +85,50 @@ func (p *Plan) BatchRange(b int) (start, n int) {
 // Fill draws batch b into cols: cols[j][i] is the draw of distribution j
 // in trial start+i, where start and n come from BatchRange. Each column
 // must have length at least n. The draws depend only on the plan and b:
-// batch b draws from the stream rand.NewPCG(seed, b), input after input,
-// first each input's probabilities (for a Latin hypercube, a random
-// permutation of the batch's n strata, each with a uniform offset), then
-// their quantiles.
+// batch b draws from the stream rand.NewPCG(seed, b), input after input:
+// for a Latin hypercube, a uniform offset in each of the batch's n strata
+// in stratum order, their quantiles, then a random shuffle (stratified);
+// for random sampling, one probability per trial, then their quantiles.
 func (p *Plan) Fill(b int, cols [][]float64) error {
 	if len(cols) != len(p.dists) {
 		panic(fmt.Sprintf("sampler: Fill with %d columns for %d distributions", len(cols), len(p.dists)))
 	}
 	_, n := p.BatchRange(b)
-	rng := rand.New(rand.NewPCG(p.seed, batchStream|uint64(b)))
-	var perm []int32
-	if p.method != Random {
-		pp := permPool.Get().(*[]int32)
-		defer permPool.Put(pp)
-		if cap(*pp) < n {
-			*pp = make([]int32, n)
-		}
-		perm = (*pp)[:n]
-	}
+	// The PCG itself, not a rand.Rand round it, so that its draws inline.
+	rng := rand.NewPCG(p.seed, batchStream|uint64(b))
 	for j, d := range p.dists {
 		col := cols[j][:n]
 		if p.method == Random {
 			for i := range col {
 				col[i] = open01(rng)
 			}
+			quantiles(d, col)
 		} else {
-			stratified(rng, col, perm)
+			stratified(rng, d, col)
 		}
-		quantiles(d, col)
 	}
 	if p.corr != nil && n > 1 {
 		sub := make([][]float64, len(cols))
 		for j := range cols {
 			sub[j] = cols[j][:n]
 		}
-		return ImanConover(sub, p.corr, rng)
+		return ImanConover(sub, p.corr, rand.New(rng)) // the same stream, continued
 	}
 	return nil
 }
 
-// permPool holds the strata permutations of Fill, one per goroutine at a
-// time.
-var permPool = sync.Pool{New: func() any { return new([]int32) }}
-
-// stratified fills u with a Latin hypercube of probabilities: u[i] =
-// (π(i) + v_i)/n for a random permutation π of the n = len(u) strata and
-// offsets v_i uniform on (0, 1), using perm (of length n) as scratch.
-func stratified(rng *rand.Rand, u []float64, perm []int32) {
-	permutation(rng, perm)
-	inv := 1 / float64(len(u))
-	for i := range u {
-		u[i] = (float64(perm[i]) + open01(rng)) * inv
+// stratified fills col with a Latin hypercube sample of d: the quantiles
+// of (k + v_k)/n for each of the n = len(col) strata k, v_k uniform on
+// (0, 1) and drawn in stratum order, then shuffled into a uniformly random
+// order. The quantiles are taken in stratum order, increasing, so that a
+// table-driven quantile walks its table in order rather than at random.
+func stratified(rng *rand.PCG, d Distribution, col []float64) {
+	inv := 1 / float64(len(col))
+	for k := range col {
+		col[k] = (float64(k) + open01(rng)) * inv
 	}
+	quantiles(d, col)
+	shuffle(rng, col)
 }
 
 // SliceQuantiler is a distribution that maps a slice of probabilities to
@@ -159,18 +149,15 @@ func quantiles(d Distribution, ps []float64) {
 	}
 }
 
-// permutation fills perm with a uniformly random permutation of
-// 0, 1, ..., len(perm)−1 drawn from rng, and returns it: the Fisher–Yates
-// shuffle (Knuth, TAOCP vol. 2, algorithm P), each index drawn by
-// Lemire's multiply-and-reject method (Lemire 2019, "Fast random integer
-// generation in an interval"), exact, from one half of a 64-bit draw.
-func permutation(rng *rand.Rand, perm []int32) []int32 {
-	for i := range perm {
-		perm[i] = int32(i)
-	}
+// shuffle puts x in a uniformly random order drawn from rng: the
+// Fisher–Yates shuffle (Knuth, TAOCP vol. 2, algorithm P), each index
+// drawn by Lemire's multiply-and-reject method (Lemire 2019, "Fast random
+// integer generation in an interval"), exact, from one 32-bit half of a
+// 64-bit draw.
+func shuffle[T any](rng *rand.PCG, x []T) {
 	var pool uint64 // unused 32-bit halves of a draw
 	have := 0
-	for i := len(perm) - 1; i > 0; i-- {
+	for i := len(x) - 1; i > 0; i-- {
 		bound := uint32(i + 1)
 		var m uint64
 		for {
@@ -184,10 +171,9 @@ func permutation(rng *rand.Rand, perm []int32) []int32 {
 				break
 			}
 		}
-		j := int32(m >> 32)
-		perm[i], perm[j] = perm[j], perm[i]
+		j := int(m >> 32)
+		x[i], x[j] = x[j], x[i]
 	}
-	return perm
 }
 
 // scoresCorrelation returns the correlation to induce among normal scores
@@ -219,6 +205,6 @@ func scoresCorrelation(target *mat.SymDense) *mat.SymDense {
 // open01 returns a uniform draw from the open interval (0, 1): the
 // midpoints of the 2^53 equal cells of [0, 1). It never returns 0 or 1,
 // so no draw lands on an infinite tail or on a distribution's open limit.
-func open01(rng *rand.Rand) float64 {
+func open01(rng *rand.PCG) float64 {
 	return (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53
 }

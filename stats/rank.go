@@ -221,11 +221,26 @@ func CorrelateDoubledRanks(dx, dy []int32) float64 {
 	}
 	var sxy, sxx, syy int128
 	c := int64(n + 1)
-	for i := range n {
-		ix, iy := int64(dx[i])-c, int64(dy[i])-c // integers in (−n, n)
-		sxy.add(ix * iy)
-		sxx.add(ix * ix)
-		syy.add(iy * iy)
+	if n < 1<<20 {
+		// Each product is below n² in size and the sums below n³ < 2^60:
+		// int64 holds them exactly.
+		var xy, xx, yy int64
+		for i := range n {
+			ix, iy := int64(dx[i])-c, int64(dy[i])-c // integers in (−n, n)
+			xy += ix * iy
+			xx += ix * ix
+			yy += iy * iy
+		}
+		sxy.add(xy)
+		sxx.add(xx)
+		syy.add(yy)
+	} else {
+		for i := range n {
+			ix, iy := int64(dx[i])-c, int64(dy[i])-c
+			sxy.add(ix * iy)
+			sxx.add(ix * ix)
+			syy.add(iy * iy)
+		}
 	}
 	vx, vy := sxx.float(), syy.float()
 	if vx == 0 || vy == 0 {

@@ -28,9 +28,10 @@ type Selector struct {
 	brackets [][2]uint64 // [lo, hi] in radix.Key order, sorted, disjoint
 }
 
-// NewSelector returns a selector for a pass over n values whose
-// summary's intervals are at opt's level, bracketing from pilot, a random
-// sample of the values (not changed). It panics if opt is invalid or n < 1
+// NewSelector returns a selector for a pass over n values that are not
+// NaN (the pass may hold NaNs besides), whose summary's intervals are at
+// opt's level, bracketing from pilot, a random sample of the values (not
+// changed). It panics if opt is invalid or n < 1
 // or the pilot is empty.
 func NewSelector(n int, opt Options, pilot []float64) *Selector {
 	level := opt.Level()
@@ -44,7 +45,7 @@ func NewSelector(n int, opt Options, pilot []float64) *Selector {
 			keys = append(keys, radix.Key(v))
 		}
 	}
-	slices.Sort(keys)
+	keys, _ = radix.Sort(keys, make([]uint64, len(keys)), 0, nil, nil)
 	m := float64(len(keys))
 	for _, r := range s.ranks {
 		if r == 0 || r == n-1 {
@@ -52,7 +53,7 @@ func NewSelector(n int, opt Options, pilot []float64) *Selector {
 		}
 		p := float64(r) / float64(n-1)
 		d := 7*math.Sqrt(p*(1-p)/m) + 2/m
-		lo, hi := uint64(0), uint64(math.MaxUint64)
+		lo, hi := radix.Key(math.Inf(-1)), radix.Key(math.Inf(1)) // never a NaN's key
 		if k := int(math.Floor((p - d) * (m - 1))); k >= 0 {
 			lo = keys[k]
 		}
@@ -105,38 +106,116 @@ func summaryRanks(n int, level float64) []int {
 // safe for concurrent use.
 type SelectorPart struct {
 	s          *Selector
-	gaps       []int       // values in the gap below each bracket, and above the last
+	below      []int       // values below each bracket
 	inside     [][]float64 // values inside each bracket
 	minK, maxK uint64      // the extremes, in radix.Key order
 	n          int
+	gathered   []float64 // scratch: the values of a pass inside some bracket
 }
 
 // Part returns a new part of the pass.
 func (s *Selector) Part() *SelectorPart {
-	return &SelectorPart{s: s, gaps: make([]int, len(s.brackets)+1), inside: make([][]float64, len(s.brackets)),
+	return &SelectorPart{s: s, below: make([]int, len(s.brackets)), inside: make([][]float64, len(s.brackets)),
 		minK: math.MaxUint64}
 }
 
 // AddSlice adds the values x (NaNs are left out, as in Summarize).
 func (p *SelectorPart) AddSlice(x []float64) {
+	if nan := p.pass(x, 0); nan > 0 {
+		// Rare: leave the NaNs out and start again. The pass changed
+		// nothing but the scratch.
+		clean := make([]float64, 0, len(x)-nan)
+		for _, v := range x {
+			if v == v {
+				clean = append(clean, v)
+			}
+		}
+		x = clean
+		p.pass(x, 0)
+	}
+	p.n += len(x)
+	for g := len(selectorSlots{}.lo); g < len(p.s.brackets); g += len(selectorSlots{}.lo) {
+		p.pass(x, g) // more than three brackets: not needed by a Summary
+	}
+}
+
+// selectorSlots are the brackets one pass of a part handles: bracket i
+// holds the keys k with k − lo[i] ≤ width[i]; an unused slot is empty and
+// above every key.
+type selectorSlots struct{ lo, width [3]uint64 }
+
+// pass adds x to brackets g, g+1 and g+2 (those that exist) and, from
+// the first, to the extremes; it returns the number of NaNs in x, and
+// when there are any it adds nothing. Each value costs a few
+// instructions without a branch: the loop keeps everything in registers,
+// counts with comparisons, and gathers into a small buffer that the next
+// value overwrites unless the value lies in a bracket.
+func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 	br := p.s.brackets
-	for _, v := range x {
-		if v != v {
-			continue
-		}
-		k := radix.Key(v)
-		p.minK, p.maxK = min(p.minK, k), max(p.maxK, k)
-		p.n++
-		b := 0
-		for b < len(br) && k > br[b][1] {
-			b++
-		}
-		if b < len(br) && k >= br[b][0] {
-			p.inside[b] = append(p.inside[b], v)
-		} else {
-			p.gaps[b]++
+	var sl selectorSlots
+	for i := range sl.lo {
+		sl.lo[i] = math.MaxUint64
+		if g+i < len(br) {
+			sl.lo[i], sl.width[i] = br[g+i][0], br[g+i][1]-br[g+i][0]
 		}
 	}
+	lo0, lo1, lo2 := sl.lo[0], sl.lo[1], sl.lo[2]
+	w0, w1, w2 := sl.width[0], sl.width[1], sl.width[2]
+	var b0, b1, b2 int
+	minK, maxK := p.minK, p.maxK
+	gathered := p.gathered[:0]
+	var buf [256]float64
+	for rest := x; len(rest) > 0; {
+		chunk := rest[:min(len(buf), len(rest))]
+		rest = rest[len(chunk):]
+		m := 0
+		for _, v := range chunk {
+			k := radix.Key(v)
+			minK, maxK = min(minK, k), max(maxK, k)
+			b0 += b2i(k < lo0)
+			b1 += b2i(k < lo1)
+			b2 += b2i(k < lo2)
+			buf[m&(len(buf)-1)] = v
+			m += b2i(k-lo0 <= w0) | b2i(k-lo1 <= w1) | b2i(k-lo2 <= w2)
+		}
+		gathered = append(gathered, buf[:m]...)
+	}
+	p.gathered = gathered
+	// NaNs have keys outside those of ±Inf, so the extremes tell whether
+	// there were any.
+	if minK < radix.Key(math.Inf(-1)) || maxK > radix.Key(math.Inf(1)) {
+		for _, v := range x {
+			nan += b2i(v != v)
+		}
+		return nan
+	}
+	if g == 0 {
+		p.minK, p.maxK = minK, maxK
+	}
+	for i, b := range [3]int{b0, b1, b2} {
+		if g+i < len(br) {
+			p.below[g+i] += b
+		}
+	}
+	for _, v := range gathered { // into their brackets, which are disjoint
+		k := radix.Key(v)
+		for i := range sl.lo {
+			if k-sl.lo[i] <= sl.width[i] {
+				p.inside[g+i] = append(p.inside[g+i], v)
+				break
+			}
+		}
+	}
+	return 0
+}
+
+// b2i returns 1 for true and 0 for false; the compiler makes it a flag
+// move, without a branch.
+func b2i(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // Summary returns the exact Summary of the values the parts were fed, with
@@ -152,12 +231,9 @@ func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 	inside := make([][]float64, len(s.brackets))
 	minK, maxK := uint64(math.MaxUint64), uint64(0)
 	for _, p := range parts {
-		run := 0 // values below bracket b in this part
 		for b := range s.brackets {
-			run += p.gaps[b]
-			below[b] += run
+			below[b] += p.below[b]
 			inside[b] = append(inside[b], p.inside[b]...)
-			run += len(p.inside[b])
 		}
 		if p.n > 0 {
 			minK, maxK = min(minK, p.minK), max(maxK, p.maxK)
