@@ -203,7 +203,7 @@ func (r *run) outputs() ([]Output, error) {
 	outs := make([]Output, len(r.specs))
 	if r.sketches != nil {
 		for j, sk := range mergeSketches(r.sketches) {
-			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: curve(sk.Quantile)}
+			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: sk.Quantiles(curveProbabilities)}
 		}
 		return outs, nil
 	}
@@ -280,15 +280,6 @@ var curveProbabilities = func() []float64 {
 	}
 	return q
 }()
-
-// curve returns quantile(k/100) for k = 0, ..., 100.
-func curve(quantile func(q float64) float64) []float64 {
-	c := make([]float64, CurvePoints)
-	for k := range c {
-		c[k] = quantile(float64(k) / (CurvePoints - 1))
-	}
-	return c
-}
 
 func columns(k, n int) [][]float64 {
 	c := make([][]float64, k)

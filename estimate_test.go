@@ -150,7 +150,7 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 	// The streaming route merges per-worker sketches: also bit-identical.
 	var stream *rockheat.Result
 	for _, w := range []int{1, 3} {
-		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w, Stream: true})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 300_001, Workers: w, Stream: true})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -167,7 +167,7 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 	}
 	var first *rockheat.Result
 	for _, w := range []int{1, 2, 8} {
-		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w, KeepSamples: true})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 300_001, Workers: w, KeepSamples: true})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -195,7 +195,7 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 	// pass and draws the sensitivity sample again: the same summaries and
 	// sensitivities, bit for bit, as the run that keeps every trial.
 	for _, w := range []int{1, 3} {
-		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 200_001, Workers: w})
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 300_001, Workers: w})
 		if err != nil {
 			t.Fatal(err)
 		}

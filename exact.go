@@ -74,7 +74,7 @@ func (r *run) selectedOutputs() ([]Output, bool) {
 		if !ok {
 			return nil, false
 		}
-		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: curve(sk.Quantile)}
+		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: sk.Quantiles(curveProbabilities)}
 	}
 	return outs, true
 }

@@ -58,3 +58,30 @@ func TestSelectorMissFallsBack(t *testing.T) {
 		t.Errorf("after a miss %d trials (%d without heat), kept run %d (%d)", r.ranTrials(), r.zero.Load(), kept.ranTrials(), kept.zero.Load())
 	}
 }
+
+// TestExactRoute: exact runs hold their outputs up to keepOutputsLimit
+// trials, or when asked to keep their trials, and select beyond it.
+func TestExactRoute(t *testing.T) {
+	t.Parallel()
+	c, err := (&Run{Title: "route", Model: goReservoir(t)}).resolve()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		opt  Options
+		keep bool
+	}{
+		{Options{Trials: keepOutputsLimit}, true},
+		{Options{Trials: keepOutputsLimit + 1}, false},
+		{Options{Trials: keepOutputsLimit + 1, KeepSamples: true}, true},
+		{Options{Trials: ExactLimit + 1}, false}, // streaming
+	} {
+		s, err := resolveOptions(c, tc.opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := s.keepsOutputs(); got != tc.keep {
+			t.Errorf("%+v: keeps its outputs %v, want %v", tc.opt, got, tc.keep)
+		}
+	}
+}

@@ -136,10 +136,17 @@ func resolveOptions(c *checked, opt Options) (*settings, error) {
 }
 
 // keepsOutputs reports whether the run holds every trial's outputs: an
-// exact run that keeps its trials or has only one batch.
+// exact run that keeps its trials or is at most keepOutputsLimit long.
 func (s *settings) keepsOutputs() bool {
-	return !s.streaming && (s.KeepSamples || s.trials <= sampler.BatchSize)
+	return !s.streaming && (s.KeepSamples || s.trials <= keepOutputsLimit)
 }
+
+// keepOutputsLimit is the longest exact run that holds its outputs rather
+// than select their order statistics in one pass (run.selectExact): up to
+// it, the outputs take little memory (2 MB an output), and the selection's
+// pilot batch, run before the others, would cost a large share of the
+// time.
+const keepOutputsLimit = 4 * sampler.BatchSize
 
 // firstRound returns the trials of the first round: the whole run, or, to
 // a precision, at least SensitivityTrials (the sensitivity sample) and at

@@ -22,7 +22,7 @@ func (pr *portfolioRun) result() *PortfolioResult {
 	}
 	specs := pr.runs[0].specs
 	output := func(o int, sk *stats.Sketch) Output {
-		return Output{Spec: specs[pr.outIdx[0][o]], Summary: sk.Summary(pr.stat), Curve: curve(sk.Quantile)}
+		return Output{Spec: specs[pr.outIdx[0][o]], Summary: sk.Summary(pr.stat), Curve: sk.Quantiles(curveProbabilities)}
 	}
 	res.SumP90 = make([]float64, len(PortfolioOutputs))
 	res.SumP10 = make([]float64, len(PortfolioOutputs))

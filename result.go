@@ -76,8 +76,8 @@ type Output struct {
 	// Curve holds the output's quantiles at non-exceedance probabilities
 	// 0, 0.01, ..., 1 (Curve[k] is exceeded with probability 1 − k/100,
 	// Curve[10] is the P90): the points of an exceedance curve. They are
-	// exact order statistics when the run kept its outputs (a run of one
-	// batch, or KeepSamples); otherwise they come from the quantile sketch,
+	// exact order statistics when the run kept its outputs (a run of up to
+	// 262 144 trials, or KeepSamples); otherwise they come from the sketch,
 	// within stats.DefaultRelErr, while Summary stays exact.
 	Curve []float64
 }

@@ -62,15 +62,6 @@ func SummarizeAt(x []float64, opt Options, qs []float64) (Summary, []float64) {
 	return build(n, int(sk.nan), at, sk.mom, level), curve
 }
 
-// group is a set of values that sort together: a bin of the sketch, or
-// the zeros, or an infinity.
-type group struct {
-	neg    bool // a negative bin (by |x|), rather than a positive one
-	index  int  // bin index
-	kind   int8 // 0 a bin, 1 zeros, 2 −Inf, 3 +Inf
-	before int  // values of x below the group
-}
-
 // orderStatistics returns the order statistics of x (whose values s
 // holds, x itself) at ranks, which are sorted and in [0, n).
 func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
@@ -79,15 +70,9 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 	type want struct{ rank, group, offset int }
 	var wants []want
 	var groups []group
-	next := 0 // index into ranks
-	cum := 0
-	visit := func(g group, count uint64) {
-		if count == 0 || next >= len(ranks) {
-			cum += int(count)
-			return
-		}
-		g.before = cum
-		end := cum + int(count)
+	next, cum := 0, 0
+	s.groups(func(g group, c uint64) bool {
+		end := cum + int(c)
 		for next < len(ranks) && ranks[next] < end {
 			if len(groups) == 0 || groups[len(groups)-1] != g {
 				groups = append(groups, g)
@@ -96,29 +81,32 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 			next++
 		}
 		cum = end
-	}
-	visit(group{kind: 2}, s.negInf)
-	for i := len(s.neg.counts) - 1; i >= 0; i-- {
-		visit(group{neg: true, index: s.neg.off + i}, s.neg.counts[i])
-	}
-	visit(group{kind: 1}, s.zero)
-	for i, c := range s.pos.counts {
-		visit(group{index: s.pos.off + i}, c)
-	}
-	visit(group{kind: 3}, s.posInf)
+		return next < len(ranks)
+	})
 
-	// Gather the values of the wanted groups.
-	posWant := make([]int32, len(s.pos.counts)) // group number + 1, or 0
-	negWant := make([]int32, len(s.neg.counts))
-	special := [4]int32{}
+	// Look-ups from a value's bin to its wanted group (number + 1, or 0):
+	// dense over the span of wanted bins of each sign.
+	var pos, neg wantSpan
+	var special [4]int32
 	for gi, g := range groups {
 		switch {
 		case g.kind != 0:
 			special[g.kind] = int32(gi + 1)
 		case g.neg:
-			negWant[g.index-s.neg.off] = int32(gi + 1)
+			neg.cover(g.index)
 		default:
-			posWant[g.index-s.pos.off] = int32(gi + 1)
+			pos.cover(g.index)
+		}
+	}
+	pos.make()
+	neg.make()
+	for gi, g := range groups {
+		if g.kind == 0 {
+			if g.neg {
+				neg.set(g.index, int32(gi+1))
+			} else {
+				pos.set(g.index, int32(gi+1))
+			}
 		}
 	}
 	vals := make([][]float64, len(groups))
@@ -126,9 +114,9 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 		var gi int32
 		switch {
 		case v > 0 && v <= math.MaxFloat64:
-			gi = posWant[s.tab.index(v)-s.pos.off]
+			gi = pos.get(s.tab.index(v))
 		case v < 0 && v >= -math.MaxFloat64:
-			gi = negWant[s.tab.index(-v)-s.neg.off]
+			gi = neg.get(s.tab.index(-v))
 		case v == 0:
 			gi = special[1]
 		case v > 0:
@@ -148,6 +136,36 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 		out[w.rank] = vals[w.group][w.offset]
 	}
 	return out
+}
+
+// wantSpan maps the bin indices lo … hi to group numbers (+1; 0 for
+// none), densely.
+type wantSpan struct {
+	lo, hi int
+	set0   bool
+	at     []int32
+}
+
+func (w *wantSpan) cover(i int) {
+	if !w.set0 {
+		w.lo, w.hi, w.set0 = i, i, true
+	}
+	w.lo, w.hi = min(w.lo, i), max(w.hi, i)
+}
+
+func (w *wantSpan) make() {
+	if w.set0 {
+		w.at = make([]int32, w.hi-w.lo+1)
+	}
+}
+
+func (w *wantSpan) set(i int, g int32) { w.at[i-w.lo] = g }
+
+func (w *wantSpan) get(i int) int32 {
+	if k := i - w.lo; uint(k) < uint(len(w.at)) {
+		return w.at[k]
+	}
+	return 0
 }
 
 // sortKeyed sorts x, which holds no NaN, in the order of radix.Key (−0

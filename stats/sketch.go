@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/bits"
+	"slices"
 	"sync"
 )
 
@@ -33,9 +34,11 @@ const DefaultRelErr = 1e-4
 // commutative and associative, and a sketch's results are bit-identical
 // whatever the order in which values were added and sketches merged.
 //
-// Memory: 8 bytes per bin, about ln(max/min)/(2α) bins per sign for the
-// range of magnitudes seen (92 kB per decade at α = 10⁻⁴), plus growth
-// slack (typically 25 %, at most 100 %) and 66 kB of sums (1.7 kB of
+// Memory: 8 bytes per bin, in pages of 256 bins allocated where values
+// fall: at most about ln(max/min)/(2α) bins per sign for the range of
+// magnitudes seen (92 kB per decade at α = 10⁻⁴), far fewer when values
+// are spread thinly over many decades; a page table of 8 bytes a page of
+// the range; and 66 kB of sums (1.7 kB of
 // limbs and 64 kB of accumulators, one per binary exponent); Bins reports
 // the count. The look-up tables of a resolution (about 115 kB at
 // α = 10⁻⁴) are built once and shared by all sketches.
@@ -84,7 +87,7 @@ func (s *Sketch) RelErr() float64 { return s.tab.relErr }
 func (s *Sketch) N() int { return int(s.n) }
 
 // Bins returns the number of histogram bins allocated, each of 8 bytes.
-func (s *Sketch) Bins() int { return len(s.pos.counts) + len(s.neg.counts) }
+func (s *Sketch) Bins() int { return (s.pos.used + s.neg.used) * pageSize }
 
 // Add adds the value x. NaN is counted apart and excluded from every
 // statistic, as in Summarize.
@@ -171,8 +174,8 @@ func (s *Sketch) addRun(xs []float64) {
 		if u>>63 != 0 {
 			b = &s.neg
 		}
-		if c := i - b.off; uint(c) < uint(len(b.counts)) {
-			b.counts[c]++
+		if k := i>>pageBits - b.first; uint(k) < uint(len(b.pages)) && b.pages[k] != nil {
+			b.pages[k][i&(pageSize-1)]++
 		} else {
 			b.inc(i)
 		}
@@ -249,7 +252,19 @@ func (s *Sketch) Exceedance(p float64) float64 {
 // (QuantileBounds). It panics if opt is invalid.
 func (s *Sketch) Summary(opt Options) Summary {
 	level := opt.Level()
-	return build(int(s.n), int(s.nan), s.at, s.mom, level)
+	n := int(s.n)
+	if n == 0 {
+		return build(0, int(s.nan), s.at, s.mom, level)
+	}
+	ranks := summaryRanks(n, level)
+	vals := s.orderStats(ranks) // one walk over the bins for all of them
+	return build(n, int(s.nan), func(k int) float64 {
+		i, ok := slices.BinarySearch(ranks, k)
+		if !ok {
+			return s.at(k)
+		}
+		return vals[i]
+	}, s.mom, level)
 }
 
 // at returns the order statistic of 0-based rank k: the exact extreme for
@@ -268,90 +283,215 @@ func (s *Sketch) at(k int) float64 {
 
 // rank returns the representative value of the value of rank r, 0 ≤ r < n.
 func (s *Sketch) rank(r uint64) float64 {
-	if r < s.negInf {
-		return math.Inf(-1)
-	}
-	r -= s.negInf
-	for i := len(s.neg.counts) - 1; i >= 0; i-- {
-		c := s.neg.counts[i]
+	v := math.Inf(1)
+	s.groups(func(g group, c uint64) bool {
 		if r < c {
-			return -s.tab.value(s.neg.off + i)
+			v = s.value(g)
+			return false
 		}
 		r -= c
+		return true
+	})
+	return v
+}
+
+// orderStats returns at(k) for each k of ranks, which are ascending, in
+// one walk over the bins.
+func (s *Sketch) orderStats(ranks []int) []float64 {
+	out := make([]float64, len(ranks))
+	for i := range out {
+		out[i] = math.Inf(1)
 	}
-	if r < s.zero {
+	next, cum := 0, uint64(0)
+	s.groups(func(g group, c uint64) bool {
+		for next < len(ranks) && uint64(ranks[next]) < cum+c {
+			out[next] = s.value(g)
+			next++
+		}
+		cum += c
+		return next < len(ranks)
+	})
+	for i, k := range ranks {
+		switch uint64(k) {
+		case 0:
+			out[i] = s.min
+		case s.n - 1:
+			out[i] = s.max
+		default:
+			out[i] = math.Min(math.Max(out[i], s.min), s.max)
+		}
+	}
+	return out
+}
+
+// Quantiles returns Quantile(q) for each q of qs, in one walk over the
+// bins. It panics if the sketch holds no values or a q is outside [0, 1].
+func (s *Sketch) Quantiles(qs []float64) []float64 {
+	if s.n == 0 {
+		panic("stats: Quantiles of empty sketch")
+	}
+	var ranks []int
+	for _, q := range qs {
+		lo, f := position(int(s.n), q)
+		ranks = append(ranks, lo)
+		if f > 0 {
+			ranks = append(ranks, lo+1)
+		}
+	}
+	slices.Sort(ranks)
+	ranks = slices.Compact(ranks)
+	vals := s.orderStats(ranks)
+	at := func(k int) float64 {
+		i, _ := slices.BinarySearch(ranks, k)
+		return vals[i]
+	}
+	out := make([]float64, len(qs))
+	for i, q := range qs {
+		lo, f := position(int(s.n), q)
+		if f == 0 {
+			out[i] = at(lo)
+		} else {
+			out[i] = interpolate(at(lo), at(lo+1), f)
+		}
+	}
+	return out
+}
+
+// group is a set of values that sort together: a bin of the sketch, or
+// the zeros, or an infinity.
+type group struct {
+	neg   bool // a negative bin (by |x|), rather than a positive one
+	index int  // bin index
+	kind  int8 // 0 a bin, 1 zeros, 2 −Inf, 3 +Inf
+}
+
+// groups calls f with every group that holds values and its count, in
+// ascending order of value, until f returns false.
+func (s *Sketch) groups(f func(g group, c uint64) bool) {
+	if s.negInf > 0 && !f(group{kind: 2}, s.negInf) {
+		return
+	}
+	more := true
+	s.neg.walk(true, func(i int, c uint64) bool {
+		more = f(group{neg: true, index: i}, c)
+		return more
+	})
+	if !more || (s.zero > 0 && !f(group{kind: 1}, s.zero)) {
+		return
+	}
+	s.pos.walk(false, func(i int, c uint64) bool {
+		more = f(group{index: i}, c)
+		return more
+	})
+	if more && s.posInf > 0 {
+		f(group{kind: 3}, s.posInf)
+	}
+}
+
+// value returns the representative value of group g.
+func (s *Sketch) value(g group) float64 {
+	switch g.kind {
+	case 1:
 		return 0
+	case 2:
+		return math.Inf(-1)
+	case 3:
+		return math.Inf(1)
 	}
-	r -= s.zero
-	for i, c := range s.pos.counts {
-		if r < c {
-			return s.tab.value(s.pos.off + i)
-		}
-		r -= c
+	if g.neg {
+		return -s.tab.value(g.index)
 	}
-	return math.Inf(1)
+	return s.tab.value(g.index)
 }
 
-// bins is a dense run of histogram counts; counts[i] is the count of bin
-// index off+i.
+// bins is a sparse histogram: the counts of bin indices in pages of
+// pageSize bins, allocated only where values fall, so that values spread
+// over hundreds of decades (a drawdown's late years, say) cost memory for
+// the bins they occupy, not for the whole range between. pages[k] holds
+// the bins of page number first+k, bin i being in page i>>pageBits at
+// i&(pageSize−1); nil where no value fell. Page numbers are the same for
+// every sketch, so pages merge one to one.
 type bins struct {
-	off    int
-	counts []uint64
+	first int        // page number of pages[0]
+	pages []*binPage // the page table; nil entries are empty pages
+	used  int        // pages allocated
 }
 
-func (b *bins) inc(i int) {
-	k := i - b.off
-	if uint(k) >= uint(len(b.counts)) {
-		b.cover(i, i)
-		k = i - b.off
-	}
-	b.counts[k]++
-}
+const pageBits = 8
 
-// cover grows b to hold bin indices lo … hi, with slack of a quarter of the
-// current length on a side that grows, so growth is amortised.
-func (b *bins) cover(lo, hi int) {
-	if len(b.counts) == 0 {
-		const first = 256
-		b.off = lo - first/2
-		b.counts = make([]uint64, max(hi-lo+1+first, first))
-		return
+const pageSize = 1 << pageBits
+
+type binPage [pageSize]uint64
+
+func (b *bins) inc(i int) { b.page(i >> pageBits)[i&(pageSize-1)]++ }
+
+// page returns page p, allocating it, and room for it in the page table
+// (with slack of a quarter of the table on the side that grows, so that
+// growth is amortised), if it is not there.
+func (b *bins) page(p int) *binPage {
+	k := p - b.first
+	if uint(k) < uint(len(b.pages)) {
+		if pg := b.pages[k]; pg != nil {
+			return pg
+		}
+	} else {
+		switch {
+		case len(b.pages) == 0:
+			b.first, b.pages = p, make([]*binPage, 1)
+		case k < 0:
+			slack := max(len(b.pages)/4, 4)
+			t := make([]*binPage, len(b.pages)-k+slack)
+			copy(t[-k+slack:], b.pages)
+			b.first, b.pages = p-slack, t
+		default:
+			slack := max(len(b.pages)/4, 4)
+			t := make([]*binPage, k+1+slack)
+			copy(t, b.pages)
+			b.pages = t
+		}
+		k = p - b.first
 	}
-	curLo, curHi := b.off, b.off+len(b.counts)-1
-	if lo >= curLo && hi <= curHi {
-		return
-	}
-	slack := max(len(b.counts)/4, 64)
-	newLo, newHi := curLo, curHi
-	if lo < curLo {
-		newLo = lo - slack
-	}
-	if hi > curHi {
-		newHi = hi + slack
-	}
-	c := make([]uint64, newHi-newLo+1)
-	copy(c[curLo-newLo:], b.counts)
-	b.off, b.counts = newLo, c
+	b.pages[k] = new(binPage)
+	b.used++
+	return b.pages[k]
 }
 
 // merge adds the counts of o to b.
 func (b *bins) merge(o *bins) {
-	first, last := -1, -1
-	for i, c := range o.counts {
-		if c != 0 {
-			if first < 0 {
-				first = i
-			}
-			last = i
+	for k, op := range o.pages {
+		if op == nil {
+			continue
+		}
+		pg := b.page(o.first + k)
+		for j, c := range op {
+			pg[j] += c
 		}
 	}
-	if first < 0 {
-		return
-	}
-	b.cover(o.off+first, o.off+last)
-	d := o.off - b.off
-	for i := first; i <= last; i++ {
-		b.counts[i+d] += o.counts[i]
+}
+
+// walk calls f with the index and count of every bin with a count, in
+// ascending order of index, or descending if down; it stops when f
+// returns false.
+func (b *bins) walk(down bool, f func(i int, c uint64) bool) {
+	for kk := range b.pages {
+		k := kk
+		if down {
+			k = len(b.pages) - 1 - kk
+		}
+		pg := b.pages[k]
+		if pg == nil {
+			continue
+		}
+		base := (b.first + k) << pageBits
+		for jj := range pg {
+			j := jj
+			if down {
+				j = pageSize - 1 - jj
+			}
+			if c := pg[j]; c != 0 && !f(base+j, c) {
+				return
+			}
+		}
 	}
 }
 

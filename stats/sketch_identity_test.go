@@ -21,9 +21,9 @@ func sameAsRef(t *testing.T, name string, s *Sketch, r *refSketch) {
 			s.zero, s.posInf, s.negInf, s.nan, s.n, r.zero, r.posInf, r.negInf, r.nan, r.n)
 	case !bitsEq(s.min, r.min) || !bitsEq(s.max, r.max):
 		t.Errorf("%s: min, max %v, %v; old Add %v, %v", name, s.min, s.max, r.min, r.max)
-	case s.pos.off != r.pos.off || !slices.Equal(s.pos.counts, r.pos.counts):
+	case !slices.Equal(binList(&s.pos), r.pos.list()):
 		t.Errorf("%s: positive bins differ from old Add's", name)
-	case s.neg.off != r.neg.off || !slices.Equal(s.neg.counts, r.neg.counts):
+	case !slices.Equal(binList(&s.neg), r.neg.list()):
 		t.Errorf("%s: negative bins differ from old Add's", name)
 	case s.mom.n != r.mom.n || s.mom.posInf != r.mom.posInf || s.mom.negInf != r.mom.negInf:
 		t.Errorf("%s: moment counts differ from old Add's", name)
@@ -37,6 +37,28 @@ func sameAsRef(t *testing.T, name string, s *Sketch, r *refSketch) {
 	if !sameFloat(m, rm) || !sameFloat(sd, rsd) {
 		t.Errorf("%s: mean, sd %v, %v; old Add %v, %v", name, m, sd, rm, rsd)
 	}
+}
+
+// binList returns the bins of b that hold values, as (index, count), in
+// ascending order of index.
+func binList(b *bins) [][2]int {
+	var l [][2]int
+	b.walk(false, func(i int, c uint64) bool {
+		l = append(l, [2]int{i, int(c)})
+		return true
+	})
+	return l
+}
+
+// list is binList for the dense bins of the old code.
+func (b *refBins) list() [][2]int {
+	var l [][2]int
+	for k, c := range b.counts {
+		if c != 0 {
+			l = append(l, [2]int{b.off + k, int(c)})
+		}
+	}
+	return l
 }
 
 func sameFloat(a, b float64) bool {

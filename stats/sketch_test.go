@@ -225,16 +225,30 @@ func TestSketchMergeMismatch(t *testing.T) {
 	NewSketch(1e-4).Merge(NewSketch(1e-3))
 }
 
-// TestSketchMemory checks the stated memory: about ln(max/min)/(2α) bins
-// for the range of values, plus at most 100 % slack and the first block.
+// TestSketchMemory checks the stated memory: at most ln(max/min)/(2α)
+// bins for the range of values, in whole pages, and, for values spread over
+// hundreds of decades, only the pages where values fall.
 func TestSketchMemory(t *testing.T) {
 	t.Parallel()
 	x := lognormal(100000, 40, 1, 8)
 	s := NewSketchOf(x)
 	need := math.Log(s.Summary(DefaultOptions).Max/s.Summary(DefaultOptions).Min) / (2 * DefaultRelErr)
-	t.Logf("%d bins for a range needing %.0f", s.Bins(), need)
-	if b := float64(s.Bins()); b < need || b > 2*need+512 {
+	if b := float64(s.Bins()); b > need+2*pageSize {
 		t.Errorf("%d bins for a range needing %.0f", s.Bins(), need)
+	}
+	// 1000 values at each of 1e-300, 1e-200, …, 1e300: 7 occupied bins
+	// across 600 decades, so 7 pages, not 6.9 million bins.
+	wide := NewSketch(DefaultRelErr)
+	for e := -300; e <= 300; e += 100 {
+		for range 1000 {
+			wide.Add(math.Pow(10, float64(e)))
+		}
+	}
+	if b := wide.Bins(); b > 7*pageSize {
+		t.Errorf("%d bins for 7 occupied bins over 600 decades", b)
+	}
+	if q := wide.Quantile(0.5); math.Abs(q/1-1) > DefaultRelErr {
+		t.Errorf("median of the wide sketch %g, want 1", q)
 	}
 }
 
@@ -270,5 +284,27 @@ func TestBinIndex(t *testing.T) {
 		}
 		check(5e-324) // subnormal
 		check(math.MaxFloat64)
+	}
+}
+
+// TestSketchQuantilesOneWalk: Quantiles, one walk over the bins, gives
+// Quantile's value for every q, bit for bit, and Summary's figures are
+// those of the order statistics Quantile reads.
+func TestSketchQuantilesOneWalk(t *testing.T) {
+	t.Parallel()
+	for _, x := range [][]float64{lognormal(50_000, 40, 1, 3), adversarial(20_000, 5)} {
+		s := NewSketchOf(x)
+		qs := []float64{0, 1e-9, 0.01, 0.1, 0.25, 0.5, 0.5, 0.9, 0.999, 1}
+		got := s.Quantiles(qs)
+		for i, q := range qs {
+			if want := s.Quantile(q); math.Float64bits(got[i]) != math.Float64bits(want) {
+				t.Errorf("Quantiles at %g = %v, Quantile %v", q, got[i], want)
+			}
+		}
+		sum := s.Summary(DefaultOptions)
+		if sum.P50 != s.Exceedance(0.5) || sum.P90 != s.Exceedance(0.9) || sum.P10 != s.Exceedance(0.1) {
+			t.Errorf("Summary P90/P50/P10 %v %v %v; Exceedance %v %v %v", sum.P90, sum.P50, sum.P10,
+				s.Exceedance(0.9), s.Exceedance(0.5), s.Exceedance(0.1))
+		}
 	}
 }
