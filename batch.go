@@ -45,6 +45,7 @@ func (r *run) batches(from, to int) error {
 type worker struct {
 	r    *run
 	w    int // index, for the worker's sketches
+	size int // trials of its largest batch
 	ev   evaluator
 	cols []*heatmodel.Column // the evaluator's input columns, by field
 	// si[j] holds the SI values of sampled input j.
@@ -56,18 +57,13 @@ type worker struct {
 
 func (r *run) newWorker(w int) *worker {
 	size := min(sampler.BatchSize, r.plan.Trials())
-	wk := &worker{r: r, w: w,
+	wk := &worker{r: r, w: w, size: size,
 		si:  make([][]float64, len(r.sampled)),
 		in:  make([][]float64, len(r.sampled)),
 		out: make([][]float64, len(r.specs))}
-	// Buffers only where a batch needs them: a column to convert to SI for
-	// an input not in SI units, and somewhere for the draws and outputs
-	// that the run does not keep.
-	for j, in := range r.sampled {
-		if in.unit.Scale != 1 || in.unit.Offset != 0 {
-			wk.si[j] = make([]float64, size)
-		}
-	}
+	// Buffers only where a batch needs them: somewhere for the draws and
+	// outputs that the run does not keep; the SI columns of inputs not in
+	// SI units (si) are made when first needed (see batch).
 	if r.keepIn == nil {
 		wk.localIn = columns(len(r.sampled), size)
 	}
@@ -115,7 +111,8 @@ func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
 func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 	r := wk.r
 	start, n := r.plan.BatchRange(b)
-	wk.place(start, n)
+	// Draws that nothing keeps are converted to SI in place.
+	inPlace := wk.place(start, n) && given == nil
 	for j, g := range given {
 		if g != nil {
 			copy(wk.in[j], g[:n])
@@ -125,7 +122,14 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 		return n, 0, err
 	}
 	for j, in := range r.sampled {
-		*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), wk.si[j])
+		buf := wk.in[j]
+		if !inPlace && (in.unit.Scale != 1 || in.unit.Offset != 0) {
+			if wk.si[j] == nil {
+				wk.si[j] = make([]float64, wk.size)
+			}
+			buf = wk.si[j]
+		}
+		*wk.cols[in.fi] = in.unit.column(heatmodel.Vary(wk.in[j]), buf)
 	}
 	z, err := wk.ev.evaluate(n, wk.out)
 	if err != nil {
@@ -133,7 +137,7 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 	}
 	for j, sp := range r.specs {
 		if i := toReportUnit(wk.out[j], sp); i >= 0 {
-			return n, 0, wk.trialError(start, i, j)
+			return n, 0, wk.trialError(b, start, i, j, inPlace)
 		}
 	}
 	return n, z, nil
@@ -182,16 +186,24 @@ func firstNonFinite(x []float64) int {
 	return -1
 }
 
-// trialError describes trial i of the batch starting at start, whose
-// output j is not finite.
-func (wk *worker) trialError(start, i, j int) error {
+// trialError describes trial i of batch b, which starts at start, whose
+// output j is not finite. If the batch's draws were converted to SI in
+// place, it draws them again to report them in their units.
+func (wk *worker) trialError(b, start, i, j int, inPlace bool) error {
 	r := wk.r
 	e := &TrialError{Trial: start + i + 1, Output: r.specs[j].Name, Value: wk.out[j][i]}
+	drawn := wk.in
+	if inPlace {
+		drawn = columns(len(r.sampled), wk.size)
+		if err := r.plan.Fill(b, drawn); err != nil {
+			return err
+		}
+	}
 	k := 0
 	for _, in := range r.c.inputs {
 		v := in.dist.Quantile(0.5)
 		if !in.fixed {
-			v = wk.in[k][i]
+			v = drawn[k][i]
 			k++
 		}
 		e.Inputs = append(e.Inputs, fmt.Sprintf("%s = %g", in.name, v))
@@ -214,25 +226,33 @@ func (e *TrialError) Error() string {
 }
 
 // place points the batch's input and output columns where they are kept:
-// every trial, the sensitivity sample, or the worker's own buffers.
-func (wk *worker) place(start, n int) {
+// every trial, the sensitivity sample, or the worker's own buffers. It
+// reports whether the inputs went to the worker's own buffers.
+func (wk *worker) place(start, n int) (localIn bool) {
 	r := wk.r
-	slot(wk.in, r.keepIn, r.sensIn, wk.localIn, start, n, r.sensN)
+	localIn = slot(wk.in, r.keepIn, r.sensIn, wk.localIn, start, n, r.sensN)
 	slot(wk.out, r.exactOut, r.sensOut, wk.localOut, start, n, r.sensN)
+	return localIn
 }
 
 // slot sets dst[j] to trials [start, start+n) of all[j] when every trial
 // is kept (all not nil), else of sens[j] when they fall in the first sensN
-// trials, else to the first n values of local[j].
-func slot(dst, all, sens, local [][]float64, start, n, sensN int) {
-	for j := range dst {
-		switch {
-		case all != nil:
+// trials, else to the first n values of local[j]; it reports the last.
+func slot(dst, all, sens, local [][]float64, start, n, sensN int) (isLocal bool) {
+	switch {
+	case all != nil:
+		for j := range dst {
 			dst[j] = all[j][start : start+n]
-		case sens != nil && start+n <= sensN:
+		}
+	case sens != nil && start+n <= sensN:
+		for j := range dst {
 			dst[j] = sens[j][start : start+n]
-		default:
+		}
+	default:
+		for j := range dst {
 			dst[j] = local[j][:n]
 		}
+		return true
 	}
+	return false
 }

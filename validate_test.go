@@ -236,13 +236,18 @@ func (m *overflowModel) newEvaluator() evaluator {
 
 type overflowEval struct {
 	evalBase
-	x heatmodel.Column
+	x     heatmodel.Column
+	limit float64 // 0.999 when zero
 }
 
 func (e *overflowEval) evaluate(n int, out [][]float64) (int, error) {
+	limit := e.limit
+	if limit == 0 {
+		limit = 0.999
+	}
 	for i := range n {
 		out[0][i] = e.x.At(i)
-		if out[0][i] > 0.999 {
+		if out[0][i] > limit {
 			out[0][i] = inf
 		}
 	}
@@ -292,4 +297,54 @@ func TestReportYearsBounded(t *testing.T) {
 		}
 	}
 	t.Errorf("errors %v lack the report-years bound", err)
+}
+
+// kmModel is overflowModel with its input a length given in km: its one
+// output is the length in m, +Inf beyond 999.9 m.
+type kmModel struct{ X Quantity }
+
+func (*kmModel) Kind() heatmodel.Kind { return heatmodel.KindReservoir }
+func (*kmModel) Settings() (heatmodel.FluidSource, heatmodel.Conversion) {
+	return heatmodel.FluidFixed, heatmodel.ConversionEfficiency
+}
+func (m *kmModel) Fields() []Field { return m.fields(&overflowEval{}) }
+func (m *kmModel) fields(e *overflowEval) []Field {
+	return []Field{required(&m.X, &e.x, "x", Kilometre, "a length", depthRange)}
+}
+func (*kmModel) outputs() []OutputSpec {
+	return []OutputSpec{{Name: "heat_in_place", Unit: "J", Doc: "x", Scale: 1}}
+}
+func (*kmModel) check(*problems, *checked) {}
+func (m *kmModel) newEvaluator() evaluator {
+	e := &overflowEval{limit: 999.9}
+	e.dst = dsts(m.fields(e))
+	return e
+}
+
+// TestTrialErrorInUnits: a batch outside the sensitivity sample converts
+// its draws to SI in place; a failing trial there still reports its
+// inputs in the units they were given (km, not m), drawn again.
+func TestTrialErrorInUnits(t *testing.T) {
+	t.Parallel()
+	u, err := sampler.NewUniform(0.5, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := (&Run{Title: "km", Trials: 300_000, Seed: 3, Sampling: sampler.Random, Model: &kmModel{X: Quantity{Dist: u, Unit: Kilometre}}}).resolve()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := resolveOptions(c, Options{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := newRun(c, s)
+	_, _, err = r.newWorker(0).batch(2, nil) // trials 131 073 …: neither kept nor in the sensitivity sample
+	var te *TrialError
+	if !errors.As(err, &te) {
+		t.Fatalf("err = %v, want a TrialError", err)
+	}
+	if te.Trial <= 2*sampler.BatchSize || !strings.HasPrefix(te.Inputs[0], "x_km = 0.9999") {
+		t.Errorf("trial %d, inputs %v; want a trial of batch 2 and x_km = 0.9999…", te.Trial, te.Inputs)
+	}
 }

@@ -25,9 +25,17 @@ package main
 import (
 	"fmt"
 	"os"
+	"runtime/debug"
 )
 
 func main() {
+	// The heap is almost all pointer-free columns of numbers, so a
+	// collection costs little to mark: collect at half the live heap
+	// rather than all of it, for a lower peak (the hot-rock demo at 10^6
+	// trials: 88 → 77 MB, no slower). GOGC, if set, is the user's choice.
+	if os.Getenv("GOGC") == "" {
+		debug.SetGCPercent(50)
+	}
 	err := run(os.Stdout, os.Stderr, os.Args)
 	if err != nil {
 		fmt.Fprintln(os.Stderr, "rockheat:", err)
