@@ -47,7 +47,7 @@ life_years = 30
 		}
 	}
 	// Output:
-	// P90 23.8, P50 40.2, P10 65.0 MWe
+	// P90 23.8, P50 40.1, P10 65.0 MWe
 }
 
 // ExampleEstimate_inGo builds a run in Go, without a scenario file: each
@@ -85,6 +85,6 @@ func ExampleEstimate_inGo() {
 	_, err = rockheat.Estimate(run, rockheat.Options{})
 	fmt.Println(err)
 	// Output:
-	// electric_power: P90 23.8, P50 40.2, P10 65.0 MWe
+	// electric_power: P90 23.8, P50 40.1, P10 65.0 MWe
 	// thickness_m: missing: the reservoir thickness (m) is required
 }
