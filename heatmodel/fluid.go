@@ -1,7 +1,6 @@
 package heatmodel
 
 import (
-	"errors"
 	"fmt"
 
 	"rockheat/heatmodel/water"
@@ -92,18 +91,11 @@ func (s *FluidScratch) LiquidProperties(n int, p, T Column) (rho, cp Column, err
 // liquidAt returns the region 1 state at (p, T), or saturated liquid at T
 // when p is below the saturation pressure (sat true).
 func liquidAt(p, T float64) (water.State, bool, error) {
-	st, err := water.Liquid(p, T)
-	if err == nil {
-		return st, false, nil
+	st, sat, err := water.LiquidOrSaturated(p, T)
+	if err != nil {
+		return st, false, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
 	}
-	var se *water.StateError
-	if errors.As(err, &se) && se.Region == 2 {
-		st, err = water.SaturatedLiquid(T)
-		if err == nil {
-			return st, true, nil
-		}
-	}
-	return st, false, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
+	return st, sat, nil
 }
 
 // ExergyEfficiency returns, for each of n trials, the electric energy per

@@ -25,6 +25,23 @@ func Liquid(p, T float64) (State, error) {
 	return State{}, aboveRegion1Err(p, T, "keep the reservoir temperature ≤ 623.15 K (350 °C)")
 }
 
+// LiquidOrSaturated returns the region 1 state at (p, T), or, when p is
+// below the saturation pressure p_s(T), so that the state would be steam,
+// the saturated liquid at T (as SaturatedLiquid) and saturated true.
+// Outside region 1 it returns Liquid's error. Unlike Liquid followed by
+// SaturatedLiquid on its error, it builds no error for a steam-side state.
+func LiquidOrSaturated(p, T float64) (st State, saturated bool, err error) {
+	if p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature {
+		ps := saturationPressure(T)
+		if p >= ps {
+			return region1(p, T), false, nil
+		}
+		return region1(ps, T), true, nil
+	}
+	st, err = Liquid(p, T)
+	return st, false, err
+}
+
 // steamErr is Liquid's error for a state on the steam side of saturation,
 // p < ps = p_s(T).
 func steamErr(p, T, ps float64) error {
