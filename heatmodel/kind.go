@@ -23,7 +23,7 @@ const (
 var Kinds = []Kind{KindReservoir, KindHotRock, KindPowerDensity}
 
 // String returns the kind's name in scenario files and reports:
-// "reservoir" or "hot-rock".
+// "reservoir", "hot-rock" or "power-density".
 func (k Kind) String() string {
 	switch k {
 	case KindReservoir:
