@@ -152,8 +152,8 @@ func (r *run) result() (*Result, error) {
 	fluid, conv := c.run.Model.Settings()
 	res := &Result{Title: c.run.Title, Path: c.run.Path, SourceSHA256: c.run.SourceSHA256, Kind: c.run.Model.Kind(), Fluid: fluid, Conversion: conv,
 		Trials: r.ranTrials(), Seed: s.seed, Sampling: c.run.Sampling, Confidence: s.stat.Level(),
-		Streaming: s.streaming, Precision: s.Precision, Correlations: c.run.Correlations,
-		PerBatch: c.run.Sampling == sampler.LatinHypercube && s.trials > sampler.BatchSize}
+		Streaming: s.streaming, Precision: s.Precision, Correlations: c.run.Correlations}
+	res.PerBatch = c.run.Sampling == sampler.LatinHypercube && res.Trials > sampler.BatchSize
 	if h, ok := c.run.Model.(*HotRock); ok {
 		res.Decline = h.Decline
 	}

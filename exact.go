@@ -13,28 +13,31 @@ type selection struct {
 }
 
 // selectExact runs an exact estimate that keeps no trial: batch 0 first,
-// as the pilot of every output's selector, then the others on the
-// workers. Should a selector's brackets miss (a chance below 1e-11), the
-// run is made again keeping every output.
+// then the others on the workers. Batch 0 is the sensitivity sample, held
+// in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
+// batch): the pilot of every output's selector, and its first values.
+// Should a selector's brackets miss (a chance below 1e-11), the run is
+// made again keeping every output.
 func (r *run) selectExact() error {
 	r.startSketches()
 	r.planned = r.s.trials
-	wk := r.newWorker(0)
-	n, z, err := wk.batch(0, nil)
-	if err != nil {
+	if err := r.batches(0, 1); err != nil {
 		return err
 	}
+	_, n := r.plan.BatchRange(0)
 	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
 	for j := range r.specs {
-		sel.sels = append(sel.sels, stats.NewSelector(r.s.trials, r.s.stat, wk.out[j][:n]))
+		sel.sels = append(sel.sels, stats.NewSelector(r.s.trials, r.s.stat, r.sensOut[j][:n]))
 	}
 	for w := range sel.parts {
 		for _, s := range sel.sels {
 			sel.parts[w] = append(sel.parts[w], s.Part())
 		}
 	}
+	for j, p := range sel.parts[0] {
+		p.AddSlice(r.sensOut[j][:n])
+	}
 	r.selection = sel
-	r.add(wk, n, z)
 	return r.batches(1, r.plan.Batches())
 }
 

@@ -19,7 +19,7 @@ func TestSelectorMissFallsBack(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		s, err := resolveOptions(c, Options{Trials: 150_000, Workers: 2, KeepSamples: keep})
+		s, err := resolveOptions(c, Options{Trials: keepOutputsLimit + 1000, Workers: 2, KeepSamples: keep})
 		if err != nil {
 			t.Fatal(err)
 		}

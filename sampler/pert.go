@@ -12,11 +12,6 @@ import (
 // pertNodes is the number of cells of each half of the PERT quantile table.
 const pertNodes = 2048
 
-// pertBuckets is the number of equal steps in t of the index that finds a
-// draw's cell: twice the number of cells, so that a look-up passes about
-// one node on average.
-const pertBuckets = 2 * pertNodes
-
 // PERT is the beta-PERT distribution with lower limit min, most likely
 // value mode and upper limit max: a beta distribution on [min, max] with
 // shape parameters α = 1 + 4·(mode − min)/(max − min) and
@@ -30,9 +25,11 @@ const pertBuckets = 2 * pertNodes
 // the distribution is tabulated from its own end, against t = F^(1/α)
 // (lower half) or t = (1 − F)^(1/β) (upper half), in which the quantile is
 // smooth right up to the limit. The error is below 1e-12 of (max − min)
-// (checked against distuv.Beta.Quantile in the tests). A draw costs a
-// power, an index look-up and the cubic; the tables (about 100 kB) are
-// built once by NewPERT and shared by the copies of a PERT.
+// (checked against distuv.Beta.Quantile in the tests). In the middle,
+// p in [1/32, 31/32], a direct table in p takes over (see directLo), so a
+// draw there costs a cell look-up and the cubic, and a draw in the tails a
+// power and a binary search. The tables are built once by NewPERT and
+// shared by the copies of a PERT.
 type PERT struct {
 	min, mode, max float64
 	alpha, beta    float64
@@ -49,15 +46,8 @@ type pertTables struct {
 type halfTable struct {
 	a float64
 	// node[k] holds t = F(x)^(1/a), x and dx/dt at the k-th node, for
-	// k ≤ pertNodes; node[pertNodes+1].t = +Inf stops the search.
+	// k ≤ pertNodes.
 	node []pertNode
-	pow  powRoute // how t = p^(1/a) is computed
-	y    float64  // exponent of the route (see powRoute)
-	// start[b] is the number of nodes whose t lies in a bucket below b,
-	// where t's bucket is min(⌊t·scale⌋, pertBuckets−1); nil if the nodes'
-	// t are not in increasing order, when a binary search finds the cell.
-	start []uint16
-	scale float64
 	// direct tabulates the middle of the half, p in [directLo, 1/2], on
 	// equal steps of p (see tabulateDirect); without nodes when not used.
 	direct hermiteTable
@@ -78,7 +68,7 @@ type pertNode struct{ t, x, s float64 }
 func newHalfTable(a, b float64) halfTable {
 	ref := distuv.Beta{Alpha: a, Beta: b}
 	xm := ref.Quantile(0.5)
-	h := halfTable{a: a, node: make([]pertNode, pertNodes+2)}
+	h := halfTable{a: a, node: make([]pertNode, pertNodes+1)}
 	for k := range pertNodes + 1 {
 		x := xm * (1 - math.Cos(math.Pi/2*float64(k)/pertNodes))
 		f := mathext.RegIncBeta(a, b, x)
@@ -92,44 +82,8 @@ func newHalfTable(a, b float64) halfTable {
 	}
 	// At x = 0, F ≈ x^a / (a·B(a, b)), so dx/dt → (a·B(a, b))^(1/a).
 	h.node[0] = pertNode{t: 0, x: 0, s: math.Pow(a*math.Exp(mathext.Lbeta(a, b)), 1/a)}
-	h.node[pertNodes+1].t = math.Inf(1)
-	h.pow, h.y = powRouteFor(1 / a)
-	h.index()
 	h.tabulateDirect(ref)
 	return h
-}
-
-// index builds start and scale when the nodes' t increase (never
-// decrease), which the search by buckets relies on.
-func (h *halfTable) index() {
-	for k := range pertNodes {
-		if !(h.node[k].t <= h.node[k+1].t) {
-			return
-		}
-	}
-	top := h.node[pertNodes].t
-	if !(top > 0) {
-		return
-	}
-	h.scale = pertBuckets / top
-	h.start = make([]uint16, pertBuckets)
-	for k := range pertNodes + 1 {
-		if b := h.bucket(h.node[k].t); b+1 < pertBuckets {
-			h.start[b+1]++
-		}
-	}
-	for b := 1; b < pertBuckets; b++ {
-		h.start[b] += h.start[b-1]
-	}
-}
-
-// bucket returns the bucket of t ≥ 0 (the last one for NaN). It is
-// monotone in t, so the nodes below t's bucket all lie below t.
-func (h *halfTable) bucket(t float64) int {
-	if v := t * h.scale; v < pertBuckets-1 {
-		return int(v)
-	}
-	return pertBuckets - 1
 }
 
 // tabulateDirect builds the direct table: at each step p_k the quantile x
@@ -155,28 +109,15 @@ func (h *halfTable) quantile(p float64) float64 {
 	return h.quantileT(p)
 }
 
-// quantileT returns the p-quantile, p in [0, 1/2], from the t-table.
-//
-// It returns the same value as the plain algorithm: t = math.Pow(p, 1/a),
-// k = sort.SearchFloat64s(t-nodes, t) − 1, then the cubic on cell k. The
-// power takes math.Pow's own route for the exponent (see powRoute) and the
-// cell is found from t's bucket by a forward walk, which ends at the first
-// node with t ≥ the draw's t, as the binary search does.
+// quantileT returns the p-quantile, p in [0, 1/2], from the t-table:
+// t = p^(1/a), then the cubic on the cell of the nodes that holds t.
 func (h *halfTable) quantileT(p float64) float64 {
 	if p <= 0 {
 		return 0
 	}
-	if !(p >= 0x1p-1022) || h.start == nil { // subnormal or NaN p, or no index
-		t := math.Pow(p, 1/h.a)
-		k := sort.Search(pertNodes+1, func(i int) bool { return h.node[i].t >= t }) - 1
-		return h.cell(k, t)
-	}
-	t := h.pow.of(p, h.y)
-	i := int(h.start[h.bucket(t)])
-	for h.node[i].t < t {
-		i++
-	}
-	return h.cell(i-1, t)
+	t := math.Pow(p, 1/h.a)
+	k := sort.Search(len(h.node), func(i int) bool { return h.node[i].t >= t }) - 1
+	return h.cell(k, t)
 }
 
 // cell evaluates the cubic Hermite interpolant of cell k (clamped to the

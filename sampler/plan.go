@@ -162,7 +162,7 @@ func quantiles(d Distribution, ps []float64) {
 // drawn by Lemire's multiply-and-reject method (Lemire 2019, "Fast random
 // integer generation in an interval"), exact, from one 32-bit half of a
 // 64-bit draw.
-func shuffle[T any](rng *rand.PCG, x []T) {
+func shuffle(rng *rand.PCG, x []float64) {
 	var pool uint64 // unused 32-bit halves of a draw
 	have := 0
 	for i := len(x) - 1; i > 0; i-- {

@@ -188,13 +188,13 @@ func TestPlanRankCorrelation(t *testing.T) {
 func TestShuffleUniform(t *testing.T) {
 	t.Parallel()
 	rng := rand.NewPCG(5, 6)
-	counts := map[[4]int32]int{}
+	counts := map[[4]float64]int{}
 	const draws = 240_000
-	perm := make([]int32, 4)
+	perm := make([]float64, 4)
 	for range draws {
-		copy(perm, []int32{0, 1, 2, 3})
+		copy(perm, []float64{0, 1, 2, 3})
 		shuffle(rng, perm)
-		counts[[4]int32(perm)]++
+		counts[[4]float64(perm)]++
 	}
 	if len(counts) != 24 {
 		t.Fatalf("%d distinct orders, want 24", len(counts))

@@ -1,6 +1,9 @@
 package stats
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // Quantile returns the q-quantile (the value not exceeded with probability
 // q) of the ascending sample sorted, by linear interpolation between order
@@ -21,11 +24,32 @@ func Quantile(sorted []float64, q float64) float64 {
 	if len(sorted) == 0 {
 		panic("stats: Quantile of empty sample")
 	}
-	lo, f := position(len(sorted), q)
+	return quantileAt(len(sorted), q, func(k int) float64 { return sorted[k] })
+}
+
+// quantileAt returns the type-7 q-quantile of n values whose order
+// statistic of 0-based rank k is at(k).
+func quantileAt(n int, q float64, at func(k int) float64) float64 {
+	lo, f := position(n, q)
 	if f == 0 {
-		return sorted[lo]
+		return at(lo)
 	}
-	return interpolate(sorted[lo], sorted[lo+1], f)
+	return interpolate(at(lo), at(lo+1), f)
+}
+
+// quantileRanks returns ranks with the order statistics that quantileAt
+// reads for each q of qs, of n values, appended, then sorted and without
+// repeats.
+func quantileRanks(ranks []int, n int, qs ...float64) []int {
+	for _, q := range qs {
+		lo, f := position(n, q)
+		ranks = append(ranks, lo)
+		if f > 0 {
+			ranks = append(ranks, lo+1)
+		}
+	}
+	slices.Sort(ranks)
+	return slices.Compact(ranks)
 }
 
 // Exceedance returns the value exceeded with probability p (the "P" value

@@ -2,7 +2,6 @@ package stats
 
 import (
 	"math"
-	"slices"
 
 	"rockheat/stats/radix"
 )
@@ -29,20 +28,7 @@ func SummarizeAt(x []float64, opt Options, qs []float64) (Summary, []float64) {
 		}
 		return build(0, int(sk.nan), nil, sk.mom, level), curve
 	}
-	ranks := []int{0, n - 1}
-	for _, q := range append([]float64{0.1, 0.5, 0.9}, qs...) {
-		lo, f := position(n, q)
-		ranks = append(ranks, lo)
-		if f > 0 {
-			ranks = append(ranks, lo+1)
-		}
-	}
-	for _, q := range []float64{0.1, 0.5, 0.9} {
-		lo, hi, _ := QuantileBounds(n, q, level)
-		ranks = append(ranks, lo, hi)
-	}
-	slices.Sort(ranks)
-	ranks = slices.Compact(ranks)
+	ranks := quantileRanks(summaryRanks(n, level), n, qs...)
 	stat := sk.orderStatistics(x, ranks)
 	at := func(i int) float64 {
 		v, ok := stat[i]
@@ -52,12 +38,7 @@ func SummarizeAt(x []float64, opt Options, qs []float64) (Summary, []float64) {
 		return v
 	}
 	for i, q := range qs {
-		lo, f := position(n, q)
-		if f == 0 {
-			curve[i] = at(lo)
-		} else {
-			curve[i] = interpolate(at(lo), at(lo+1), f)
-		}
+		curve[i] = quantileAt(n, q, at)
 	}
 	return build(n, int(sk.nan), at, sk.mom, level), curve
 }

@@ -90,16 +90,10 @@ func NewSelector(n int, opt Options, pilot []float64) *Selector {
 func summaryRanks(n int, level float64) []int {
 	ranks := []int{0, n - 1}
 	for _, q := range []float64{0.1, 0.5, 0.9} {
-		lo, f := position(n, q)
-		ranks = append(ranks, lo)
-		if f > 0 {
-			ranks = append(ranks, lo+1)
-		}
 		l, h, _ := QuantileBounds(n, q, level)
 		ranks = append(ranks, l, h)
 	}
-	slices.Sort(ranks)
-	return slices.Compact(ranks)
+	return quantileRanks(ranks, n, 0.1, 0.5, 0.9)
 }
 
 // SelectorPart is one goroutine's share of a Selector's pass. It is not

@@ -228,11 +228,7 @@ func (s *Sketch) Quantile(q float64) float64 {
 	if s.n == 0 {
 		panic("stats: Quantile of empty sketch")
 	}
-	lo, f := position(int(s.n), q)
-	if f == 0 {
-		return s.at(lo)
-	}
-	return interpolate(s.at(lo), s.at(lo+1), f)
+	return quantileAt(int(s.n), q, s.at)
 }
 
 // Exceedance returns the value exceeded with probability p (P90 for
@@ -330,16 +326,8 @@ func (s *Sketch) Quantiles(qs []float64) []float64 {
 	if s.n == 0 {
 		panic("stats: Quantiles of empty sketch")
 	}
-	var ranks []int
-	for _, q := range qs {
-		lo, f := position(int(s.n), q)
-		ranks = append(ranks, lo)
-		if f > 0 {
-			ranks = append(ranks, lo+1)
-		}
-	}
-	slices.Sort(ranks)
-	ranks = slices.Compact(ranks)
+	n := int(s.n)
+	ranks := quantileRanks(nil, n, qs...)
 	vals := s.orderStats(ranks)
 	at := func(k int) float64 {
 		i, _ := slices.BinarySearch(ranks, k)
@@ -347,12 +335,7 @@ func (s *Sketch) Quantiles(qs []float64) []float64 {
 	}
 	out := make([]float64, len(qs))
 	for i, q := range qs {
-		lo, f := position(int(s.n), q)
-		if f == 0 {
-			out[i] = at(lo)
-		} else {
-			out[i] = interpolate(at(lo), at(lo+1), f)
-		}
+		out[i] = quantileAt(n, q, at)
 	}
 	return out
 }

@@ -129,13 +129,7 @@ func build(n, nan int, at func(i int) float64, m *moments, level float64) Summar
 	s.Min, s.Max = at(0), at(n-1)
 	s.Mean, s.SD = m.meanSD()
 
-	quant := func(q float64) float64 {
-		lo, f := position(n, q)
-		if f == 0 {
-			return at(lo)
-		}
-		return interpolate(at(lo), at(lo+1), f)
-	}
+	quant := func(q float64) float64 { return quantileAt(n, q, at) }
 	var short []string // percentiles without an interval at the level
 	need := 0
 	interval := func(name string, q float64) Interval {
