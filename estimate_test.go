@@ -447,3 +447,33 @@ func TestSensitivityOnlyFormulaInputs(t *testing.T) {
 		t.Errorf("heat in place lists %v; electric capacity lists %d inputs, want the 7 sampled", heat, len(power))
 	}
 }
+
+// TestEverySampledInputIsRanked: every input a bundled example samples
+// drives at least one output's sensitivity ranking. An input a formula
+// uses but no output's OutputSpec.DependsOn names would be left out of
+// every "what drives" table, misstating what the result depends on (the
+// geotherm's heat flow and the fractures' inputs once were).
+func TestEverySampledInputIsRanked(t *testing.T) {
+	t.Parallel()
+	for _, ex := range scenarios.Examples() {
+		s, err := scenarios.Parse(ex.Name, ex.Text)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 1000})
+		if err != nil {
+			t.Fatalf("%s: %v", ex.Name, err)
+		}
+		ranked := map[string]bool{}
+		for _, sens := range res.Sensitivity {
+			for _, f := range sens.Influences {
+				ranked[f.Input] = true
+			}
+		}
+		for _, in := range res.Inputs {
+			if !in.Fixed && !ranked[in.Key] {
+				t.Errorf("%s: %s is sampled but ranked for no output", ex.Name, in.Key)
+			}
+		}
+	}
+}

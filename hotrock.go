@@ -3,6 +3,7 @@ package rockheat
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"rockheat/heatmodel"
 )
@@ -125,17 +126,19 @@ func (m *HotRock) reportYears() []float64 {
 }
 
 // The inputs each hot-rock output depends on, by Field.Base. The rock's
-// density and heat capacity cancel from the initial power E0/τ.
+// density and heat capacity cancel from the initial power E0/τ; the
+// fractures' inputs (decline = "fractures") shape the decline only.
 var (
-	hotRockColumn  = []string{"surface_temp", "gradient", "min_useful_temp", "top_depth", "max_depth"}
-	hotRockRock    = []string{"rock_density", "rock_heat_capacity"}
-	hotRockFlow    = []string{"flow_per_area", "fluid_density", "fluid_heat_capacity", "fluid_temp", "fluid_pressure"}
-	hotRockHeat    = uses([]string{"area"}, hotRockColumn, hotRockRock)
-	hotRockTau     = uses(hotRockColumn, hotRockRock, hotRockFlow)
-	hotRockInitial = uses([]string{"area"}, hotRockColumn, hotRockFlow)
-	hotRockDecline = uses(hotRockHeat, hotRockFlow)
-	hotRockMined   = uses(hotRockDecline, []string{"life"})
-	hotRockPower   = uses(hotRockMined, []string{"conversion_efficiency", "capacity_factor"})
+	hotRockColumn    = slices.Concat(geothermInputs, []string{"min_useful_temp", "max_depth"})
+	hotRockRock      = []string{"rock_density", "rock_heat_capacity"}
+	hotRockFlow      = []string{"flow_per_area", "fluid_density", "fluid_heat_capacity", "fluid_temp", "fluid_pressure"}
+	hotRockFractures = []string{"fracture_spacing", "flow_path", "rock_conductivity"}
+	hotRockHeat      = slices.Concat([]string{"area"}, hotRockColumn, hotRockRock)
+	hotRockTau       = slices.Concat(hotRockColumn, hotRockRock, hotRockFlow)
+	hotRockInitial   = slices.Concat([]string{"area"}, hotRockColumn, hotRockFlow)
+	hotRockDecline   = slices.Concat(hotRockHeat, hotRockFlow, hotRockFractures)
+	hotRockMined     = slices.Concat(hotRockDecline, []string{"life"})
+	hotRockPower     = slices.Concat(hotRockMined, []string{"conversion_efficiency", "capacity_factor"})
 )
 
 func (m *HotRock) outputs() []OutputSpec {

@@ -89,14 +89,11 @@ func (s OutputSpec) dependsOn(base string) bool {
 	return slices.Contains(s.DependsOn, base)
 }
 
-// uses returns the union of lists of input bases.
-func uses(lists ...[]string) []string {
-	var all []string
-	for _, l := range lists {
-		all = append(all, l...)
-	}
-	return all
-}
+// geothermInputs are the bases of every way to give a geotherm (see
+// Geotherm): the temperatures of a reservoir or hot-rock column depend on
+// all of them.
+var geothermInputs = []string{"surface_temp", "top_depth", "gradient", "heat_flow", "conductivity",
+	"heat_production", "layers"}
 
 // DeclineGroup is the OutputSpec.Group of the hot-rock thermal power at
 // each report year, and its key in JSON.

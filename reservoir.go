@@ -3,6 +3,7 @@ package rockheat
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"rockheat/heatmodel"
 )
@@ -111,14 +112,13 @@ func plantFields(cf *Quantity, cfDst *heatmodel.Column, life *Quantity, lifeDst 
 
 // The inputs each reservoir output depends on, by Field.Base.
 var (
-	reservoirHeat = uses([]string{"area"}, reservoirTemp, []string{"reference_temp", "porosity", "rock_density",
+	reservoirHeat = slices.Concat([]string{"area"}, reservoirTemp, []string{"reference_temp", "porosity", "rock_density",
 		"rock_heat_capacity", "fluid_density", "fluid_heat_capacity", "reservoir_pressure", "depth"})
 	// The reservoir's mean temperature: given, or from the geotherm.
-	reservoirTemp = []string{"thickness", "reservoir_temp", "surface_temp", "top_depth", "gradient", "heat_flow",
-		"conductivity", "heat_production", "layers"}
-	reservoirRecoverable = uses(reservoirHeat, []string{"recovery_factor"})
-	reservoirThermal     = uses(reservoirRecoverable, []string{"life"})
-	reservoirElectric    = uses(reservoirThermal, []string{"conversion_efficiency", "utilization_efficiency", "capacity_factor"})
+	reservoirTemp        = slices.Concat([]string{"thickness", "reservoir_temp"}, geothermInputs)
+	reservoirRecoverable = slices.Concat(reservoirHeat, []string{"recovery_factor"})
+	reservoirThermal     = slices.Concat(reservoirRecoverable, []string{"life"})
+	reservoirElectric    = slices.Concat(reservoirThermal, []string{"conversion_efficiency", "utilization_efficiency", "capacity_factor"})
 	// The power density Pe/A does not depend on the area, which cancels.
 	reservoirDensity = reservoirElectric[1:]
 )
