@@ -5,6 +5,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"sync"
 	"syscall"
 
 	"github.com/urfave/cli/v2"
@@ -113,24 +114,34 @@ func writeChart(dir *outfile.Folder, name string, write func(io.Writer) error) e
 // back set (temporary files, files already put in place, a folder the
 // run created) and exits with status 128 + the signal's number (130 for
 // SIGINT, 143 for SIGTERM), as shells report a process the signal ended.
+//
+// Once a signal is caught, stop does not return: the handler ends the
+// process with the signal's status, which the run's own error (its
+// outputs, aborted under it, fail) must not forestall with another.
 func onInterrupt(set *outfile.Set, stderr io.Writer) (stop func()) {
 	sigs := make(chan os.Signal, 1)
-	done := make(chan struct{})
+	var mu sync.Mutex // held by the handler from the signal to the exit
+	stopped := false
 	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM)
 	go func() {
-		select {
-		case sig := <-sigs:
-			err := set.Abort()
-			fmt.Fprintf(stderr, "\nrockheat: stopped by %v; the files this run had begun are removed and existing files are as they were\n", sig)
-			if err != nil {
-				fmt.Fprintln(stderr, "rockheat:", err)
-			}
-			os.Exit(128 + int(sig.(syscall.Signal)))
-		case <-done:
+		sig, ok := <-sigs
+		mu.Lock()
+		if !ok || stopped {
+			mu.Unlock()
+			return
 		}
+		err := set.Abort()
+		fmt.Fprintf(stderr, "\nrockheat: stopped by %v; the files this run had begun are removed and existing files are as they were\n", sig)
+		if err != nil {
+			fmt.Fprintln(stderr, "rockheat:", err)
+		}
+		os.Exit(128 + int(sig.(syscall.Signal)))
 	}()
 	return func() {
+		mu.Lock() // blocks for good once the handler has a signal: it exits the process
+		stopped = true
+		mu.Unlock()
 		signal.Stop(sigs)
-		close(done)
+		close(sigs)
 	}
 }
