@@ -3,6 +3,8 @@ package rockheat
 import (
 	"errors"
 	"fmt"
+	"math"
+	"slices"
 
 	"rockheat/heatmodel"
 )
@@ -175,10 +177,12 @@ func (g *Geotherm) check(p *problems, c *checked, anchor string) (heatmodel.Geot
 	return mode, ok
 }
 
-// hottest returns the profile of g with every parameter at the end of its
-// range that makes the rock hottest at depth (the highest gradients and
-// heat flow, the lowest conductivity and heat production; layer bottoms at
-// their medians), in SI units: where no trial can be hotter.
+// hottest returns, in SI units, a profile at least as hot at every depth
+// as any trial's: every parameter at the end of its range that makes the
+// rock hotter (the highest gradients and heat flow, the lowest
+// conductivities and heat productions) and, for layers, at each depth the
+// hottest layer that can lie there (see layerEnvelope). No trial is
+// hotter; the bound is reached when the layers' bottoms are fixed.
 func (g *Geotherm) hottest(c *checked, mode heatmodel.GeothermMode) (heatmodel.Profile, bool) {
 	hiOf := func(q *Quantity, u Unit) (float64, bool) {
 		_, hi, ok := c.span(q)
@@ -187,10 +191,6 @@ func (g *Geotherm) hottest(c *checked, mode heatmodel.GeothermMode) (heatmodel.P
 	loOf := func(q *Quantity, u Unit) (float64, bool) {
 		lo, _, ok := c.span(q)
 		return u.ToSI(lo), ok
-	}
-	medOf := func(q *Quantity, u Unit) (float64, bool) {
-		lo, hi, ok := c.span(q)
-		return u.ToSI((lo + hi) / 2), ok
 	}
 	prodLo := func(q *Quantity) float64 { // a heat production not given is 0
 		v, ok := loOf(q, MicrowattPerM3)
@@ -213,15 +213,22 @@ func (g *Geotherm) hottest(c *checked, mode heatmodel.GeothermMode) (heatmodel.P
 			return heatmodel.Profile{}, false
 		}
 		return heatmodel.HomogeneousProfile(q, k, prodLo(&g.HeatProduction)), true
-	case heatmodel.GeothermLayers:
-		var ls []heatmodel.Layer
-		for i := range g.Layers {
-			b, ok1 := medOf(&g.Layers[i].Bottom, Kilometre)
-			gr, ok2 := hiOf(&g.Layers[i].Gradient, CelsiusPerKm)
-			if !ok1 || !ok2 {
-				return heatmodel.Profile{}, false
+	}
+	bottoms, eligible, ok := g.layerEnvelope(c)
+	if !ok {
+		return heatmodel.Profile{}, false
+	}
+	if mode == heatmodel.GeothermLayers {
+		ls := make([]heatmodel.Layer, len(bottoms))
+		for k, z := range bottoms {
+			ls[k].Bottom = z
+			for _, i := range eligible[k] {
+				gr, ok := hiOf(&g.Layers[i].Gradient, CelsiusPerKm)
+				if !ok {
+					return heatmodel.Profile{}, false
+				}
+				ls[k].Gradient = max(ls[k].Gradient, gr)
 			}
-			ls = append(ls, heatmodel.Layer{Bottom: b, Gradient: gr})
 		}
 		prof, err := heatmodel.NewProfile(ls)
 		return prof, err == nil
@@ -230,17 +237,59 @@ func (g *Geotherm) hottest(c *checked, mode heatmodel.GeothermMode) (heatmodel.P
 	if !ok {
 		return heatmodel.Profile{}, false
 	}
-	var ls []heatmodel.ConductiveLayer
-	for i := range g.Layers {
-		b, ok1 := medOf(&g.Layers[i].Bottom, Kilometre)
-		k, ok2 := loOf(&g.Layers[i].Conductivity, WattPerMetreK)
-		if !ok1 || !ok2 {
-			return heatmodel.Profile{}, false
+	ls := make([]heatmodel.ConductiveLayer, len(bottoms))
+	for k, z := range bottoms {
+		ls[k] = heatmodel.ConductiveLayer{Bottom: z, Conductivity: math.Inf(1), HeatProduction: math.Inf(1)}
+		for _, i := range eligible[k] {
+			kLo, ok := loOf(&g.Layers[i].Conductivity, WattPerMetreK)
+			if !ok {
+				return heatmodel.Profile{}, false
+			}
+			ls[k].Conductivity = min(ls[k].Conductivity, kLo)
+			ls[k].HeatProduction = min(ls[k].HeatProduction, prodLo(&g.Layers[i].HeatProduction))
 		}
-		ls = append(ls, heatmodel.ConductiveLayer{Bottom: b, Conductivity: k, HeatProduction: prodLo(&g.Layers[i].HeatProduction)})
 	}
 	prof, err := heatmodel.NewConductiveProfile(q, ls)
 	return prof, err == nil
+}
+
+// layerEnvelope splits depth at every end of the layers' bottom ranges
+// and returns the bottoms of the pieces, m, and for each piece the layers
+// that some trial can put there: layer i spans from the bottom of layer
+// i−1 (the surface for the first) to its own bottom (without end for the
+// last), so it can reach from the shallowest bottom above to its deepest
+// own. A last piece 1 m long below every range holds the last layer
+// alone, so that the profile continues below it with that layer.
+func (g *Geotherm) layerEnvelope(c *checked) (bottoms []float64, eligible [][]int, ok bool) {
+	n := len(g.Layers)
+	lo, hi := make([]float64, n), make([]float64, n)
+	for i := range g.Layers {
+		l, h, given := c.span(&g.Layers[i].Bottom)
+		if !given {
+			return nil, nil, false
+		}
+		lo[i], hi[i] = Kilometre.ToSI(l), Kilometre.ToSI(h)
+		bottoms = append(bottoms, lo[i], hi[i])
+	}
+	slices.Sort(bottoms)
+	bottoms = slices.Compact(bottoms)
+	bottoms = append(bottoms, bottoms[len(bottoms)-1]+1)
+	top := 0.0 // of the piece
+	for _, z := range bottoms {
+		var in []int
+		for i := range g.Layers {
+			from := 0.0
+			if i > 0 {
+				from = lo[i-1]
+			}
+			if from <= top && (i == n-1 || z <= hi[i]) {
+				in = append(in, i)
+			}
+		}
+		eligible = append(eligible, in)
+		top = z
+	}
+	return bottoms, eligible, true
 }
 
 // columns prepares the geotherm columns of an evaluator for mode: a

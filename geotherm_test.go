@@ -145,3 +145,36 @@ func TestHotRockDeclinesAgree(t *testing.T) {
 		t.Errorf("power at 30 years: fractures %g MWth, exponential %g; 200 m spacing should cool faster", b, a)
 	}
 }
+
+// TestLayerBottomRangeNotRejected: a hot layer whose bottom is uncertain
+// can reach the minimum useful temperature above the maximum depth in
+// some trials only; the scenario must run, not be refused as "no trial
+// has useful heat". With Ts = 10 °C, 60 °C/km above a bottom b uniform on
+// [1, 5] km and 10 °C/km below, T(5 km) = 10 + 60·b + 10·(5 − b) =
+// 60 + 50·b °C, so 250 °C is reached above 5 km when b ≥ 3.8 km: in 30 %
+// of trials (analytic); checked to 5 binomial standard errors.
+func TestLayerBottomRangeNotRejected(t *testing.T) {
+	t.Parallel()
+	src := strings.Replace(hotRockText(t), "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 40 }\n", "", 1)
+	src = strings.Replace(src, "surface_temp_c = { dist = \"normal\", mean = 10, sd = 1.5 }", "surface_temp_c = 10", 1)
+	src = strings.Replace(src, "min_useful_temp_c = 150", "min_useful_temp_c = 250", 1)
+	src = strings.Replace(src, "max_depth_km = { dist = \"uniform\", min = 5, max = 6.5 }", "max_depth_km = 5", 1)
+	src += `
+[[layers]]
+bottom_km = { dist = "uniform", min = 1, max = 5 }
+gradient_c_per_km = 60
+
+[[layers]]
+bottom_km = 20
+gradient_c_per_km = 10
+`
+	const n = 20000
+	res, err := rockheat.Estimate(&mustParse(t, src).Run, rockheat.Options{Trials: n})
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := 1 - float64(res.ZeroHeatTrials)/n
+	if se := math.Sqrt(0.3 * 0.7 / n); math.Abs(got-0.3) > 5*se {
+		t.Errorf("%.4f of trials hold useful heat, want 0.3 ± %.4f", got, 5*se)
+	}
+}
