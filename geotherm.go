@@ -253,6 +253,68 @@ func (g *Geotherm) hottest(c *checked, mode heatmodel.GeothermMode) (heatmodel.P
 	return prof, err == nil
 }
 
+// shallowestPeak returns the shallowest depth, m, at which any trial's
+// conductive geotherm can peak (heatmodel.Profile, PeakDepth): where the
+// heat produced above it first equals the surface heat flow, with the
+// lowest heat flow and, at each depth, the highest heat production any
+// layer there can have. It is +Inf for a geotherm of gradients, or one
+// without heat production, and ok false when a range is unknown.
+func (g *Geotherm) shallowestPeak(c *checked, mode heatmodel.GeothermMode) (float64, bool) {
+	if mode == heatmodel.GeothermGradient || mode == heatmodel.GeothermLayers {
+		return math.Inf(1), true
+	}
+	qLo, _, ok := c.span(&g.HeatFlow)
+	if !ok {
+		return 0, false
+	}
+	q := MilliwattPerM2.ToSI(qLo)
+	prodHi := func(a *Quantity) float64 { // a heat production not given is 0
+		_, hi, ok := c.span(a)
+		if !ok {
+			return 0
+		}
+		return MicrowattPerM3.ToSI(hi)
+	}
+	if mode == heatmodel.GeothermHeatFlow {
+		if a := prodHi(&g.HeatProduction); a > 0 {
+			return q / a, true
+		}
+		return math.Inf(1), true
+	}
+	bottoms, eligible, ok := g.layerEnvelope(c)
+	if !ok {
+		return 0, false
+	}
+	top := 0.0
+	for k, z := range bottoms {
+		a := 0.0
+		for _, i := range eligible[k] {
+			a = max(a, prodHi(&g.Layers[i].HeatProduction))
+		}
+		if k == len(bottoms)-1 { // the last piece continues below
+			z = math.Inf(1)
+		}
+		if a > 0 && q <= a*(z-top) {
+			return top + q/a, true
+		}
+		q -= a * (z - top)
+		top = z
+	}
+	return math.Inf(1), true
+}
+
+// checkPeak reports a geotherm that can peak above deepest, m, the deepest
+// rock a trial uses, so that some trial would take rock below the peak,
+// where the steady solution has heat flowing down and the temperature
+// falling: not a physical geotherm. anchor names the input that sets the
+// depth.
+func (g *Geotherm) checkPeak(p *problems, c *checked, mode heatmodel.GeothermMode, deepest float64, anchor string) {
+	if z, ok := g.shallowestPeak(c, mode); ok && z < deepest {
+		p.input(anchor, "reaches %.4g km, but with the lowest heat flow and the highest heat production the geotherm can peak at %.4g km, where the heat produced above equals the surface heat flow, and falls below it; keep the rock above that depth, raise the heat flow or lower the heat production",
+			deepest/1000, z/1000)
+	}
+}
+
 // layerEnvelope splits depth at every end of the layers' bottom ranges
 // and returns the bottoms of the pieces, m, and for each piece the layers
 // that some trial can put there: layer i spans from the bottom of layer

@@ -178,3 +178,29 @@ gradient_c_per_km = 10
 		t.Errorf("%.4f of trials hold useful heat, want 0.3 ± %.4f", got, 5*se)
 	}
 }
+
+// TestGeothermPeakAboveRock: one rock under a surface heat flow q0 with
+// heat production A peaks at q0/A (the heat flow q0 − A·z falls to zero;
+// docs/references.md §6): 0.080 W/m² / 8e-6 W/m³ = 10 km, 160 K above the
+// surface (q0²/(2kA), k = 2.5 W/(m·K)). A hot-rock column mined to 12 km
+// would use rock below the peak and is refused, naming max_depth_km and
+// the 10 km; to 9 km (158 K, above the 140 K the demo's 150 °C needs) it
+// runs.
+func TestGeothermPeakAboveRock(t *testing.T) {
+	t.Parallel()
+	src := strings.Replace(hotRockText(t), "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 40 }",
+		"heat_flow_mw_m2 = 80\nconductivity_w_mk = 2.5\nheat_production_uw_m3 = 8", 1)
+	for _, c := range []struct {
+		maxDepth string
+		refused  bool
+	}{{"12", true}, {"9", false}} {
+		s := strings.Replace(src, "max_depth_km = { dist = \"uniform\", min = 5, max = 6.5 }", "max_depth_km = "+c.maxDepth, 1)
+		_, err := scenarios.Parse("test.toml", []byte(s))
+		switch {
+		case c.refused && (err == nil || !strings.Contains(err.Error(), "max_depth_km") || !strings.Contains(err.Error(), "peak at 10 km")):
+			t.Errorf("max depth %s km: err = %v, want a refusal naming max_depth_km and the 10 km peak", c.maxDepth, err)
+		case !c.refused && err != nil:
+			t.Errorf("max depth %s km: %v", c.maxDepth, err)
+		}
+	}
+}

@@ -231,6 +231,10 @@ func (m *HotRock) check(p *problems, c *checked) {
 	}
 	if ok {
 		m.checkColumn(p, c, mode)
+		if _, zMax, given := c.span(&m.MaxDepth); given {
+			f := fieldOf(c.fields, &m.MaxDepth)
+			m.Geotherm.checkPeak(p, c, mode, f.unit().ToSI(zMax), f.label())
+		}
 	}
 }
 

@@ -186,6 +186,12 @@ func (m *Reservoir) checkTemperature(p *problems, c *checked) bool {
 	if ok && (m.Fluid == heatmodel.FluidIF97 || m.Conversion == heatmodel.ConversionExergy) {
 		m.checkGeothermIF97(p, c, mode)
 	}
+	_, topHi, ok1 := c.span(&m.TopDepth)
+	_, hHi, ok2 := c.span(&m.Thickness)
+	if ok && ok1 && ok2 {
+		tf := fieldOf(c.fields, &m.TopDepth)
+		m.Geotherm.checkPeak(p, c, mode, tf.unit().ToSI(topHi)+hHi, tf.label())
+	}
 	return false
 }
 
