@@ -112,6 +112,22 @@ func regress(c *cli.Context) error {
 	if err != nil {
 		return err
 	}
+	// The JUnit report is checked before any scenario runs, against the
+	// scenarios and their expectations, which it may not replace.
+	var set *outfile.Set
+	var report *outfile.Target
+	if cfg.junit != "" {
+		var ins []outfile.Input
+		for _, p := range paths {
+			ins = append(ins, outfile.Input{Path: p, Role: "a scenario being checked"},
+				outfile.Input{Path: expect.Path(p), Role: "the expectation of a scenario being checked"})
+		}
+		set = outfile.New(c.App.Writer, ins...)
+		if report, err = set.Add("--junit", cfg.junit); err != nil {
+			return usageError{err}
+		}
+		defer set.Abort() // after Commit, a no-op
+	}
 	cases := runCases(paths, cfg)
 	var junit []expect.Case
 	if cfg.update {
@@ -119,10 +135,12 @@ func regress(c *cli.Context) error {
 	} else {
 		junit, err = checkCases(c.App.Writer, c.App.ErrWriter, cases, cfg)
 	}
-	if cfg.junit != "" {
-		if werr := outfile.WriteFile("--junit", cfg.junit, func(w io.Writer) error {
-			return expect.WriteJUnit(w, "rockheat regress", junit)
-		}); werr != nil {
+	if report != nil {
+		werr := report.Write(func(w io.Writer) error { return expect.WriteJUnit(w, "rockheat regress", junit) })
+		if werr == nil {
+			werr = set.Commit()
+		}
+		if werr != nil {
 			return errors.Join(err, werr)
 		}
 	}

@@ -23,8 +23,8 @@ var errStopped = errors.New("the run was stopped, and its outputs were taken bac
 
 // Write writes t's content: fn receives a buffered writer. A file is
 // written at once to a temporary file beside it, which Commit renames
-// into place; if fn or the writing fails, the temporary file is removed
-// and the error names the output (call Abort then). For standard output
+// into place; if fn or the writing fails, the error names the output and
+// the whole set is taken back, as by Abort, so that Commit refuses. For standard output
 // and a device or FIFO, fn is kept and called by Commit. Write is called
 // once for each target.
 func (t *Target) Write(fn func(io.Writer) error) error {
@@ -47,14 +47,12 @@ func (t *Target) Write(fn func(io.Writer) error) error {
 	f, err := s.createTemp(t)
 	s.mu.Unlock()
 	if err != nil {
-		return t.fail(err)
+		return errors.Join(t.fail(err), s.Abort())
 	}
 	if err := fill(f, t.mode(), fn); err != nil {
-		s.mu.Lock()
-		os.Remove(f.Name())
-		t.tmp = ""
-		s.mu.Unlock()
-		return t.fail(err)
+		// Abort removes the temporary file with the rest: a set with a
+		// failed output commits nothing.
+		return errors.Join(t.fail(err), s.Abort())
 	}
 	return nil
 }

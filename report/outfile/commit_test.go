@@ -116,6 +116,7 @@ func TestFailureTakesBack(t *testing.T) {
 		device  bool   // add --d /dev/full, whose writes fail
 		before  func() // done between the writes and Commit
 		abort   bool   // Abort instead of Commit
+		commit  bool   // Commit, not Abort, after the failed write
 		want    string // in the error
 	}{
 		{name: "a later file fails", failing: "c.txt", want: "writing --c c.txt: disk on fire"},
@@ -123,6 +124,7 @@ func TestFailureTakesBack(t *testing.T) {
 		{name: "a rename fails", before: func() { os.MkdirAll("c.txt/x", 0o755) }, want: "putting --c c.txt in place"},
 		{name: "a device fails", device: true, want: "writing --d /dev/full: write /dev/full: no space left on device"},
 		{name: "aborted", abort: true, want: "the run was stopped"},
+		{name: "Commit after a failed write", failing: "c.txt", commit: true, want: "the run was stopped"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -165,7 +167,11 @@ func TestFailureTakesBack(t *testing.T) {
 					fn = func(w io.Writer) error { io.WriteString(w, "partial"); return errors.New("disk on fire") }
 				}
 				if err = tg.Write(fn); err != nil {
-					s.Abort()
+					if c.commit {
+						err = s.Commit() // the failed write took the set back: refused
+					} else {
+						s.Abort()
+					}
 					break
 				}
 			}
