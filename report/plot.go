@@ -444,17 +444,25 @@ type swing struct {
 // the widest swings |SwingHigh − SwingLow|, widest at the top, the output
 // with that input at its P90 (10th percentile, the low value) and P10
 // (90th percentile, the high value) and every other sampled input at its
-// median. Bars run from a vertical reference line at the output's P50,
-// which stands in for the all-medians value (not kept in a Result); the
-// caption says so. It returns an error naming the outputs there are when
-// r has none named output, and an error when the output has no
-// sensitivities (no sampled input, or too short a run).
+// median. Bars run from a vertical reference line at the output with
+// every sampled input at its median (Sensitivity.Base), or at its P50 when
+// that is not finite; the caption says which. It returns an error naming
+// the outputs there are when r has none named output, and an error when
+// the output has no swings to draw (see HasTornado).
 func TornadoSVG(w io.Writer, r *rockheat.Result, output string) error {
 	ch, err := tornadoChart(r, output)
 	if err != nil {
 		return err
 	}
 	return ch.writeSVG(w)
+}
+
+// HasTornado reports whether the output of r named output has a tornado
+// chart (TornadoSVG): some sampled input that moves it, in a run of at
+// least 3 trials.
+func HasTornado(r *rockheat.Result, output string) bool {
+	_, err := tornadoChart(r, output)
+	return err == nil
 }
 
 func tornadoChart(r *rockheat.Result, output string) (chart, error) {

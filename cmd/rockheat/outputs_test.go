@@ -319,3 +319,31 @@ func interrupted(t *testing.T, sig syscall.Signal, args []string) (int, string) 
 	<-done
 	return cmd.ProcessState.ExitCode(), stderr.String()
 }
+
+// TestPlotsSkipUnmovedOutputs: with one sampled input, the conversion
+// efficiency, heat in place moves with no input, so it has no tornado
+// chart; --plots writes the others (electric capacity's tornado among
+// them) rather than failing the run.
+func TestPlotsSkipUnmovedOutputs(t *testing.T) {
+	dir := t.TempDir()
+	path := scenarioFile(t, dir, "one.toml",
+		`area_km2 = { dist = "triangular", min = 3, mode = 6, max = 14 }`, "area_km2 = 6",
+		`thickness_m = { dist = "uniform", min = 800, max = 1600 }`, "thickness_m = 1200",
+		`reservoir_temp_c = { dist = "normal", mean = 235, sd = 12, min = 200 }`, "reservoir_temp_c = 235",
+		`porosity = { dist = "pert", min = 0.02, mode = 0.06, max = 0.12 }`, "porosity = 0.06",
+		`rock_heat_capacity_j_kgk = { dist = "uniform", min = 850, max = 1000 }`, "rock_heat_capacity_j_kgk = 900",
+		`recovery_factor = { dist = "uniform", min = 0.08, max = 0.20 }`, "recovery_factor = 0.14")
+	plots := filepath.Join(dir, "plots")
+	var out, errw bytes.Buffer
+	if err := run(&out, &errw, []string{"rockheat", "run", path, "--trials", "2000", "--plots", plots, "--out", filepath.Join(dir, "r.txt")}); err != nil {
+		t.Fatalf("%v\n%s", err, errw.String())
+	}
+	if _, err := os.Stat(filepath.Join(plots, "tornado-heat_in_place.svg")); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("a tornado chart of heat in place, which no input moves (%v)", err)
+	}
+	for _, name := range []string{"tornado-electric_power.svg", "exceedance-heat_in_place.svg"} {
+		if _, err := os.Stat(filepath.Join(plots, name)); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+}

@@ -175,7 +175,7 @@ func writePlots(dir *outfile.Folder, res *rockheat.Result) error {
 		}); err != nil {
 			return err
 		}
-		if len(res.Sensitivity) > 0 {
+		if report.HasTornado(res, name) { // an output no sampled input moves has none
 			if err := writeChart(dir, "tornado-"+name+".svg", func(w io.Writer) error {
 				return report.TornadoSVG(w, res, name)
 			}); err != nil {
