@@ -180,12 +180,19 @@ func methodText(r *rockheat.Result) string {
 		}
 		return s + "R recovery factor, F capacity factor and L plant life (years of 365.25 days)." + fluid
 	case heatmodel.KindHotRock:
-		return "Conductive rock column T(z) = Ts + G·z (or piecewise layers). Useful heat above the minimum useful temperature " +
+		s := "Conductive rock column T(z) = Ts + G·z (or piecewise layers). Useful heat above the minimum useful temperature " +
 			"Tmin between z1, where the rock reaches Tmin (or the top depth if deeper), and the maximum depth z2: " +
-			"E0 = A·ρr·cr·∫(T − Tmin)dz, = A·ρr·cr·G·(z2 − z1)²/2 for one gradient. A circulated water flow V̇ mines it " +
-			"exponentially (heat-mining model, Armstead & Tester 1987): τ = ρr·cr·(z2 − z1)/((V̇/A)·ρw·cw), " +
-			"P(t) = (E0/τ)·e^(−t/τ); heat mined over the life L: E0·(1 − e^(−L/τ)); mean thermal power over the life " +
-			"= that / L; electric capacity = η·mean thermal power / F." + fluid
+			"E0 = A·ρr·cr·∫(T − Tmin)dz, = A·ρr·cr·G·(z2 − z1)²/2 for one gradient. "
+		if r.Decline == heatmodel.DeclineFractures {
+			s += "Water flows through parallel fractures of spacing S and flow path L across the area (Gringarten, " +
+				"Witherspoon & Ohnishi 1975), the heat reaching them by conduction through rock of conductivity k; " +
+				"the outlet cooling follows from its Laplace transform, inverted numerically, from the initial power " +
+				"E0/τ = ρw·cw·V̇·(T̄ − Tmin); heat mined over the life L: the integral of P(t) over it; "
+		} else {
+			s += "A circulated water flow V̇ mines it exponentially (heat-mining model, Armstead & Tester 1987): " +
+				"τ = ρr·cr·(z2 − z1)/((V̇/A)·ρw·cw), P(t) = (E0/τ)·e^(−t/τ); heat mined over the life L: E0·(1 − e^(−L/τ)); "
+		}
+		return s + "mean thermal power over the life = that / L; electric capacity = η·mean thermal power / F." + fluid
 	}
 	return ""
 }

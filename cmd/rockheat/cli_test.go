@@ -78,6 +78,7 @@ func TestCommandLine(t *testing.T) {
 		{"IF97 too deep", []string{"validate", f("deep.toml", "[model]", "[model]\nfluid = \"if97\"", "fluid_density_kg_m3 = 850          # liquid water near 235 °C\n", "depth_m = 20000\n",
 			"fluid_heat_capacity_j_kgk = 4600\n", "")}, 2, "at 10186 m a cold water column reaches 100 MPa"},
 		{"no useful heat", []string{"validate", hot}, 2, "no trial has useful heat"},
+		{"fracture method", []string{"run", "fracture-flow", "--trials", "2000"}, 0, "parallel fractures of spacing S and flow path L"},
 		{"JUnit report onto a scenario", []string{"regress", f("reg.toml"), "--junit", filepath.Join(dir, "reg.toml")}, 2,
 			"--junit " + filepath.Join(dir, "reg.toml") + " is a scenario being checked"},
 		{"JUnit report into no folder", []string{"regress", f("reg2.toml"), "--junit", filepath.Join(dir, "none", "r.xml")}, 2,
