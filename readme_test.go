@@ -4,12 +4,15 @@ import (
 	"flag"
 	"fmt"
 	"os"
+	"path/filepath"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
 	"rockheat"
 	"rockheat/heatmodel"
+	"rockheat/report/expect"
 )
 
 var updateREADME = flag.Bool("update-readme", false, "rewrite the README's generated input tables")
@@ -78,5 +81,38 @@ func TestREADMEInputTables(t *testing.T) {
 		if err := os.WriteFile("README.md", []byte(out), 0o644); err != nil {
 			t.Fatal(err)
 		}
+	}
+}
+
+// TestREADMERegressFigures: the README's count of the figures a
+// statistical check of the bundled library compares, and its Bonferroni
+// z at the default 1 % (expect.BonferroniZ), are those of the library's
+// expectation files, so they cannot go stale as examples are added.
+func TestREADMERegressFigures(t *testing.T) {
+	src, err := os.ReadFile("README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := regexp.MustCompile(`For the bundled library, m = (\d+) and z = ([\d.]+)\.`).FindStringSubmatch(string(src))
+	if m == nil {
+		t.Fatal(`the README no longer says "For the bundled library, m = … and z = …."`)
+	}
+	paths, err := filepath.Glob("scenarios/examples/*" + expect.Suffix)
+	if err != nil || len(paths) == 0 {
+		t.Fatalf("no expectation files (%v)", err)
+	}
+	figures := 0
+	for _, p := range paths {
+		e, err := expect.ReadFile(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		figures += expect.StatFigures(e)
+	}
+	if got, want := m[1], strconv.Itoa(figures); got != want {
+		t.Errorf("README: m = %s, the library compares %s figures", got, want)
+	}
+	if got, want := m[2], fmt.Sprintf("%.2f", expect.BonferroniZ(0.01, figures)); got != want {
+		t.Errorf("README: z = %s, want %s", got, want)
 	}
 }
