@@ -218,6 +218,10 @@ func (c *checker) chance(key string, v any, pr *rockheat.Prospect) {
 	case nil:
 		c.add(key, "needs chance_of_success = a probability in [0, 1], or a table of factors such as { temperature = 0.8, permeability = 0.6 }")
 	case map[string]any:
+		if len(x) == 0 {
+			c.add(key+".chance_of_success", "is an empty table; give a probability in [0, 1], or at least one factor such as { temperature = 0.8 }")
+			return
+		}
 		names := make([]string, 0, len(x))
 		for name := range x {
 			names = append(names, name)

@@ -62,6 +62,8 @@ chance_of_success = 0.4
 		{"unknown factor", strings.Replace(good, "chance_of_success = 0.5", "chance_of_success = { temprature = 0.5 }", 1),
 			`prospects[1].chance_of_success.temprature: is not a chance factor rockheat knows (did you mean "temperature"?)`},
 		{"missing chance", strings.Replace(good, "chance_of_success = 0.4\n", "", 1), "prospects[2]: needs chance_of_success"},
+		{"empty chance table", strings.Replace(good, "chance_of_success = 0.5", "chance_of_success = {}", 1),
+			"prospects[1].chance_of_success: is an empty table"},
 		{"bad scenario", strings.Replace(good, `"a.toml"`, `"bad.toml"`, 1), "bad.toml:3: inputs.area_km2: = -1 is outside"},
 		{"no such scenario", strings.Replace(good, `"a.toml"`, `"none.toml"`, 1), `prospects[1]: scenario "none.toml"`},
 		{"chance above 1", strings.Replace(good, "0.4", "1.4", 1), "prospects[2]: chance of success = 1.4 must be a probability"},
