@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 
+	"gonum.org/v1/gonum/stat/distuv"
+
 	"rockheat/sampler"
 )
 
@@ -186,5 +188,57 @@ func TestPortfolioProblems(t *testing.T) {
 				t.Errorf("err = %v, want one saying %q", err, c.want)
 			}
 		})
+	}
+}
+
+// TestPortfolioSharesTargetAndSuccessCorrelation: with chances 1, the total
+// of two independent normal prospects net of working interests 0.5 and 1
+// is normal with mean 0.5·μa + μb and sd √(0.25·σa² + σb²) (a linear
+// combination of independent normals), so P(total ≥ T) = 1 − Φ((T − μ)/σ)
+// (gonum distuv.Normal), checked to 5 binomial standard errors. And two
+// prospects of chance 0.5 whose successes are rank-correlated at 0.8 fail
+// together more often than independent ones (0.25): for normal scores
+// correlated at r = 2·sin(π·0.8/6), P(both fail) = 1/4 + asin(r)/(2π) =
+// 0.401 (Sheppard's formula for the bivariate normal orthant), which
+// Iman–Conover meets approximately (within 0.02 here).
+func TestPortfolioSharesTargetAndSuccessCorrelation(t *testing.T) {
+	t.Parallel()
+	const n = 200_000
+	a, b := normalProspect(t, "a", 1), normalProspect(t, "b", 1)
+	a.Share = 0.5
+	alone, err := EstimatePortfolio(&Portfolio{Title: "alone", Trials: n, Seed: 3, Prospects: []Prospect{normalProspect(t, "a", 1), normalProspect(t, "b", 1)}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const power = 3
+	sa, sb := alone.Prospects[0].Unrisked[power].Summary, alone.Prospects[1].Unrisked[power].Summary
+	mu, sd := 0.5*sa.Mean+sb.Mean, math.Sqrt(0.25*sa.SD*sa.SD+sb.SD*sb.SD)
+	target := mu + 0.5*sd
+	res, err := EstimatePortfolio(&Portfolio{Title: "shares", Trials: n, Seed: 3, TargetMWe: target, Prospects: []Prospect{a, b}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tot := res.Unrisked[power].Summary
+	if !within(tot.Mean, mu, sd/math.Sqrt(n), 5) {
+		t.Errorf("net mean %g, want 0.5·%g + %g = %g", tot.Mean, sa.Mean, sb.Mean, mu)
+	}
+	if !within(tot.SD, sd, sd/math.Sqrt(2*n), 5) {
+		t.Errorf("net sd %g, want %g", tot.SD, sd)
+	}
+	want := 1 - distuv.UnitNormal.CDF(0.5)
+	if res.Target == nil || !within(res.Target.Probability, want, math.Sqrt(want*(1-want)/n), 5) {
+		t.Errorf("P(total ≥ %g) = %+v, want 1 − Φ(0.5) = %.4f", target, res.Target, want)
+	}
+
+	corr, err := EstimatePortfolio(&Portfolio{Title: "fail together", Trials: n, Seed: 4,
+		Prospects:           []Prospect{normalProspect(t, "a", 0.5), normalProspect(t, "b", 0.5)},
+		SuccessCorrelations: []ProspectCorrelation{{Prospects: [2]string{"a", "b"}, Rank: 0.8}}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := 2 * math.Sin(math.Pi*0.8/6)
+	both := 0.25 + math.Asin(r)/(2*math.Pi)
+	if se := math.Sqrt(0.25 * 0.75 / n); corr.ChanceNone < 0.25+5*se || math.Abs(corr.ChanceNone-both) > 0.02 {
+		t.Errorf("P(no success) = %.4f with success correlation 0.8; want above 0.25 + 5 se and near %.3f", corr.ChanceNone, both)
 	}
 }
