@@ -319,8 +319,11 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 
 // meanTemperatures returns each trial's reservoir temperature, K: the
 // exact mean of its geotherm over the reservoir, Ts + MeanRise(top,
-// top + thickness) (the heat in place is linear in the temperature, so
-// the mean gives it exactly).
+// top + thickness). With fixed fluid properties the heat in place is
+// linear in the temperature, so the mean gives it exactly; with IF97
+// fluid or the exergy route (ρf·cf and W/Qr depend on the temperature)
+// it is an approximation, close while the temperature varies little over
+// the thickness.
 func (e *reservoirEval) meanTemperatures(n int, thickness heatmodel.Column) (heatmodel.Column, error) {
 	if e.freeze {
 		if err := e.geo.Freeze(); err != nil {

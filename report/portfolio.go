@@ -15,7 +15,7 @@ import (
 // are not the sums of its prospects'.
 const NonAdditive = "Percentiles do not add: the portfolio's P90 is exceeded in 90% of trials of the total, " +
 	"whereas the sum of the prospects' P90s supposes every prospect at its low case in the same trial, " +
-	"which is rarer, so the sum of P90s lies below the portfolio's P90 (and the sum of P10s above its P10) " +
+	"which is rarer, so the sum of P90s usually lies below the portfolio's P90 (and the sum of P10s above its P10) " +
 	"unless the prospects move fully together; means do add " +
 	"(the SPE/AAPG/WPC/SPEE Petroleum Resources Management System warns against adding percentiles)."
 
