@@ -173,19 +173,6 @@ func HomogeneousProfile(q0, k, a float64) Profile {
 // IsZero reports whether p is the zero Profile, which has no shape.
 func (p Profile) IsZero() bool { return p.segs == nil && p.g == 0 }
 
-// Layers returns a copy of the layers of a profile built from gradient
-// layers (NewProfile or SetLayers), or nil for any other profile.
-func (p Profile) Layers() []Layer {
-	if p.segs == nil || p.segs[0].k != 0 {
-		return nil
-	}
-	layers := make([]Layer, len(p.segs))
-	for i, s := range p.segs {
-		layers[i] = Layer{Bottom: s.bottom, Gradient: s.grad}
-	}
-	return layers
-}
-
 // Rise returns the rise of the rock temperature above the surface
 // temperature at depth z, K, for z ≥ 0 m. At a layer boundary it belongs
 // to the layer above; the rise is continuous there.

@@ -71,23 +71,9 @@ func (g *GeothermColumns) At(i int) (Profile, error) {
 	return UniformProfile(g.Gradient.At(i)), nil
 }
 
-// Constant reports whether every parameter of g is the same for all
-// trials, so that one profile serves them all.
-func (g *GeothermColumns) Constant() bool {
-	cols := []Column{g.Gradient, g.HeatFlow, g.Conductivity, g.HeatProduction}
-	for _, l := range g.Layers {
-		cols = append(cols, l.Bottom, l.Gradient, l.Conductivity, l.HeatProduction)
-	}
-	for _, c := range cols {
-		if c.Values != nil {
-			return false
-		}
-	}
-	return true
-}
-
-// Freeze builds the one profile of a Constant g into Fixed (copied, so
-// that At's scratch cannot change it).
+// Freeze builds into Fixed the one profile of a g whose every parameter is
+// the same for all trials (Const columns), copied so that At's scratch
+// cannot change it.
 func (g *GeothermColumns) Freeze() error {
 	p, err := g.At(0)
 	if err != nil {

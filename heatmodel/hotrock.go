@@ -7,11 +7,12 @@ import (
 
 // exponentialTrial evaluates trial i by the exponential decline of a
 // well-mixed block (Armstead & Tester 1987): the useful heat E0, τ, the
-// power at the report times and the heat mined over the life.
+// power at the report times and the heat mined over the life. z1 is
+// UsefulTop's, and z1 < z2.
 func (h *HotRock) exponentialTrial(i int, p Profile, z1, z2 float64, out HotRockOutputs) {
 	ts, tmin := h.SurfaceTemp.At(i), h.MinTemp.At(i)
 	rhoR, cR := h.RockDensity.At(i), h.RockHeatCapacity.At(i)
-	e0 := h.Area.At(i) * UsefulHeat(p, ts, tmin, z1, z2, rhoR, cR)
+	e0 := h.Area.At(i) * (rhoR * cR * p.excess(tmin-ts, z1, z2)) // UsefulHeat, z1 being already useful
 	tau := TimeConstant(z1, z2, rhoR, cR, h.Flux.At(i), h.WaterDensity.At(i), h.WaterHeatCapacity.At(i))
 	out.HeatInPlace[i] = e0
 	out.TimeConstant[i] = tau
@@ -48,10 +49,20 @@ func (h *HotRock) fractureTrial(i int, p Profile, z1, z2 float64, out HotRockOut
 	out.HeatInPlace[i] = f.HeatInPlace()
 	out.TimeConstant[i] = f.TimeConstant()
 	out.InitialPower[i] = f.InitialPower()
+	// One inversion gives both the power and the heat mined at a time:
+	// the heat mined over the life comes with a report time equal to it.
+	life, mined := h.Life.At(i), math.NaN()
 	for k, t := range h.ReportTimes {
-		out.PowerAt[k][i] = f.Power(t)
+		var m float64
+		out.PowerAt[k][i], m = f.PowerAndHeatMined(t)
+		if t == life {
+			mined = m
+		}
 	}
-	out.Recovered[i] = f.HeatMined(h.Life.At(i))
+	if mined != mined {
+		mined = f.HeatMined(life)
+	}
+	out.Recovered[i] = mined
 }
 
 // Decline is the model of a hot-rock block's thermal drawdown.

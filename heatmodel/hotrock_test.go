@@ -524,3 +524,38 @@ func BenchmarkHotRock(b *testing.B) {
 		})
 	}
 }
+
+// TestHotRockFractureMapping checks how Evaluate maps a hot-rock trial onto
+// the parallel-fracture model, field by field, by hand for the case of
+// derivedHotRock with spacing S = 200 m, flow path L = 800 m and rock
+// conductivity k = 2.8 W/(m·K): the column reaches 120 °C at z1 = 3500 m
+// and is mined to z2 = 6000 m, so H = 2500 m and the rock starts at its
+// mean, T0 = 15 + 0.03·(3500 + 6000)/2 = 157.5 °C; 1 km² holds
+// N = A/(L·S) = 6.25 fractures, D = S/2 = 100 m, sharing Q = 0.5 m³/s, so
+// q = Q/(N·H) = 3.2e-5 m²/s per fracture per metre of height and the
+// spacing number is λ = 2kL/(ρw·cw·q·D) = 0.33493 (docs/references.md §11).
+// The powers at the report times and the heat mined over the life are
+// those of that FractureFlow.
+func TestHotRockFractureMapping(t *testing.T) {
+	h := derivedHotRock()
+	h.Decline = DeclineFractures
+	h.FractureSpacing, h.FlowPath, h.RockConductivity = Const(200), Const(800), Const(2.8)
+	h.ReportTimes = []float64{0, 10 * secondsPerYear, 30 * secondsPerYear}
+	out := newHotRockOutputs(1, len(h.ReportTimes))
+	h.Evaluate(1, out)
+	hand := FractureFlow{Fractures: 6.25, HalfSpacing: 100, Length: 800, Height: 2500, Flow: 0.5,
+		RockConductivity: 2.8, RockDensity: 2600, RockHeatCapacity: 900, WaterDensity: 1000, WaterHeatCapacity: 4180,
+		RockTemp: 157.5 + zeroCelsius, InjectionTemp: 120 + zeroCelsius}
+	lambda := 2 * 2.8 * 800 / (1000 * 4180 * 3.2e-5 * 100)
+	if got := hand.SpacingNumber(); !scalar.EqualWithinRel(got, lambda, 1e-12) || !scalar.EqualWithinRel(lambda, 0.33493, 1e-4) {
+		t.Errorf("spacing number %v, by hand %v (0.33493)", got, lambda)
+	}
+	for k, tm := range h.ReportTimes {
+		if want := hand.Power(tm); !scalar.EqualWithinRel(out.PowerAt[k][0], want, 1e-12) {
+			t.Errorf("P(%g yr) = %g W, the hand-mapped fractures give %g W", tm/secondsPerYear, out.PowerAt[k][0], want)
+		}
+	}
+	if want := hand.HeatMined(30 * secondsPerYear); !scalar.EqualWithinRel(out.Recovered[0], want, 1e-12) {
+		t.Errorf("heat mined %g J, the hand-mapped fractures give %g J", out.Recovered[0], want)
+	}
+}
