@@ -46,7 +46,7 @@ var (
 	layerDepthRange = Ranges{Domain{Lo: 0, Hi: 100, LoOpen: true}, Domain{Lo: 0, Hi: 30}}    // km
 )
 
-// geothermMode returns the way g is given, or an error saying what is
+// mode returns the way g is given, or an error saying what is
 // missing or doubled.
 func (g *Geotherm) mode() (heatmodel.GeothermMode, error) {
 	top := g.Gradient.Given() || g.Conductivity.Given() || g.HeatProduction.Given()
@@ -354,7 +354,7 @@ func (g *Geotherm) layerEnvelope(c *checked) (bottoms []float64, eligible [][]in
 	return bottoms, eligible, true
 }
 
-// columns prepares the geotherm columns of an evaluator for mode: a
+// prepare prepares the geotherm columns of an evaluator for mode: a
 // geotherm whose every part is fixed is built once, on the first batch.
 func (g *Geotherm) prepare(c *heatmodel.GeothermColumns) (freeze bool) {
 	mode, err := g.mode()

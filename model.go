@@ -7,8 +7,8 @@ import (
 	"rockheat/heatmodel"
 )
 
-// Model is the physics of a run with its typed inputs: *Reservoir or
-// *HotRock. Each input is a Quantity field; Fields lists those the model
+// Model is the physics of a run with its typed inputs: *Reservoir,
+// *HotRock or *PowerDensity. Each input is a Quantity field; Fields lists those the model
 // takes in its current settings.
 type Model interface {
 	// Kind returns the model kind.

@@ -44,7 +44,7 @@ type Prospect struct {
 	Run *Run
 	// Chance is the chance of success: the probability that the prospect
 	// holds a producible resource, in [0, 1]. When Factors are given it is
-	// their product (set by the caller; Validate checks it).
+	// their product: 0 takes the product, and a value given must equal it.
 	Chance  float64
 	Factors []ChanceFactor
 	// Share is the working interest, in (0, 1]; 0 means 1. Totals are net

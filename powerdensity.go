@@ -55,7 +55,7 @@ type powerDensityEval struct {
 
 func (e *powerDensityEval) evaluate(n int, out [][]float64) (int, error) {
 	for i := range n {
-		out[0][i] = heatmodel.PowerDensityMWe(e.area.At(i), e.density.At(i))
+		out[0][i] = heatmodel.PowerDensityCapacity(e.area.At(i), e.density.At(i))
 	}
 	return 0, nil
 }

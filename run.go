@@ -25,7 +25,8 @@ type Run struct {
 	Seed uint64
 	// Sampling is the sampling scheme.
 	Sampling sampler.Method
-	// Model is the physics and its inputs: *Reservoir or *HotRock.
+	// Model is the physics and its inputs: *Reservoir, *HotRock or
+	// *PowerDensity.
 	Model Model
 	// Correlations are target rank correlations between sampled inputs,
 	// named as Field.Name names them in the unit given (e.g. "area_km2").

@@ -19,8 +19,9 @@ type InputError struct {
 	// Input is the name of the input at fault, in the unit given (e.g.
 	// "area_km2"); empty when the problem is with a setting.
 	Input string
-	// Setting names the setting at fault when Input is empty: "model",
-	// "trials", "correlations", "layers" or "report_years"; Index is the
+	// Setting names the setting at fault when Input is empty: "title",
+	// "model", "trials", "correlations", "layers" or "report_years" (and,
+	// in a portfolio, "prospects", "shared" or "target_mwe"); Index is the
 	// 1-based entry of a list setting (a correlation, a layer), or 0.
 	Setting string
 	Index   int
@@ -33,6 +34,7 @@ type InputError struct {
 	Msg string
 }
 
+// Error returns the problem as "input: message" (or "setting: message").
 func (e *InputError) Error() string {
 	where := e.Input
 	if where == "" {
@@ -51,6 +53,7 @@ func (e *InputError) Error() string {
 // Run.Validate return them.
 type InputErrors []*InputError
 
+// Error returns every problem, one a line.
 func (es InputErrors) Error() string {
 	lines := make([]string, len(es))
 	for i, e := range es {
@@ -150,7 +153,7 @@ func span(d sampler.Distribution) (lo, hi float64) {
 func (r *Run) resolve() (*checked, error) {
 	var p problems
 	if r.Model == nil {
-		p.setting("model", 0, "no model: set Model to a *rockheat.Reservoir or *rockheat.HotRock")
+		p.setting("model", 0, "no model: set Model to a *rockheat.Reservoir, *rockheat.HotRock or *rockheat.PowerDensity")
 		return nil, p.err()
 	}
 	checkTitle(&p, r.Title)

@@ -83,10 +83,13 @@ var Declines = []Decline{DeclineExponential, DeclineFractures}
 // String returns the decline's name in scenario files: "exponential" or
 // "fractures".
 func (d Decline) String() string {
-	if d == DeclineFractures {
+	switch d {
+	case DeclineExponential:
+		return "exponential"
+	case DeclineFractures:
 		return "fractures"
 	}
-	return "exponential"
+	return fmt.Sprintf("Decline(%d)", int(d))
 }
 
 // UsefulTop returns z1, m: the depth at which the rock of profile p under
@@ -143,9 +146,9 @@ func HeatMined(e0, tau, t float64) float64 {
 // per input, in SI units: an engineered system that circulates water
 // through hot, dry, conductive rock and mines the rock's stored heat.
 //
-// The rock temperature is T(z) = Ts + Rise(z): a uniform gradient per trial
-// (Gradient) or a layered profile fixed for all trials (Geotherm) under a
-// per-trial surface temperature. The useful rock lies from z1, where
+// The rock temperature is T(z) = Ts + Rise(z) under a per-trial surface
+// temperature: a uniform gradient per trial (Gradient), a profile fixed
+// for all trials (Geotherm), or a geotherm per trial (Columns). The useful rock lies from z1, where
 // T = MinTemp or TopDepth if deeper, down to z2 = MaxDepth. With Area A
 // and the heat-mining model of Armstead & Tester (1987, "Heat Mining"),
 // as given in renewable-energy textbooks:
@@ -162,7 +165,10 @@ func HeatMined(e0, tau, t float64) float64 {
 // deeper TopDepth, z1 = (Tmin − Ts)/G and E0 = A·ρr·cr·G·(z2 − z1)²/2.
 // If Tmin ≤ Ts, z1 is TopDepth (the surface for 0). The model cools the
 // whole column z1–z2 as one well-mixed body, so τ and P(t) hold for a
-// layered geotherm too, with E0 from its exact piecewise integral.
+// layered geotherm too, with E0 from its exact piecewise integral. With
+// Decline = DeclineFractures, P(t) and Er come instead from water through
+// parallel fractures (Fractures, FractureFlow), from the same E0 and
+// initial power E0/τ.
 type HotRock struct {
 	Area        Column // m², > 0
 	SurfaceTemp Column // K, Ts
@@ -202,16 +208,18 @@ type HotRockOutputs struct {
 	TimeConstant  []float64   // s, τ
 	InitialPower  []float64   // W, P(0) = E0/τ
 	PowerAt       [][]float64 // W, PowerAt[k][i] = P(ReportTimes[k]) of trial i
-	Recovered     []float64   // J, E0·(1 − e^(−L/τ)), heat mined over the life
+	Recovered     []float64   // J, heat mined over the life: E0·(1 − e^(−L/τ)), or the fractures' integral
 	MeanPower     []float64   // W, mean thermal power over the life
 	ElectricPower []float64   // W, electric capacity
 }
 
 // Evaluate computes the n trials of h into out, and returns the number of
 // trials with no useful heat: those with no rock at or above MinTemp
-// between TopDepth and MaxDepth (z1 ≥ z2), for which every output is 0. It panics if an output
-// is shorter than n, if len(out.PowerAt) ≠ len(h.ReportTimes), or if a
-// uniform gradient is ≤ 0.
+// between TopDepth and MaxDepth (z1 ≥ z2), for which every output is 0.
+// It panics if an output is shorter than n, if len(out.PowerAt) ≠
+// len(h.ReportTimes), if a uniform gradient is ≤ 0, if Columns give a
+// geotherm that is not one, or (DeclineFractures) if a trial's fractures
+// are not a valid FractureFlow.
 func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
 	if len(out.HeatInPlace) < n || len(out.TimeConstant) < n || len(out.InitialPower) < n ||
 		len(out.Recovered) < n || len(out.MeanPower) < n || len(out.ElectricPower) < n {

@@ -15,7 +15,7 @@ const (
 	// HotRock).
 	KindHotRock
 	// KindPowerDensity is the analog method: electric capacity as area
-	// times the power density of producing fields (PowerDensityMWe).
+	// times the power density of producing fields (PowerDensityCapacity).
 	KindPowerDensity
 )
 

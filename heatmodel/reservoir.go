@@ -89,8 +89,8 @@ func (b Block) HeatInPlace() float64 {
 	return b.Area * b.Thickness * ((1-b.Porosity)*b.RockDensity*b.RockHeatCapacity + b.Porosity*b.FluidDensity*b.FluidHeatCapacity) * dT
 }
 
-// PowerDensityMWe returns the electric capacity, W, of an area, m², at a
+// PowerDensityCapacity returns the electric capacity, W, of an area, m², at a
 // power density, W/m² (numerically MWe/km²): the analog method that sets a
 // prospect beside producing fields (Wilmarth & Stimac 2014,
 // docs/references.md §3).
-func PowerDensityMWe(area, density float64) float64 { return area * density }
+func PowerDensityCapacity(area, density float64) float64 { return area * density }
