@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"regexp"
 	"slices"
 	"strconv"
@@ -44,11 +45,27 @@ func exitCode(err error) int {
 // run builds the command line app on the given writers and runs it with
 // args (args[0] is the program name).
 func run(stdout, stderr io.Writer, args []string) error {
-	args, err := flagsFirst(args)
+	app := newApp(stdout, stderr)
+	args, err := flagsFirst(args, boolFlags(app))
 	if err != nil {
 		return err
 	}
-	return newApp(stdout, stderr).Run(args)
+	return app.Run(args)
+}
+
+// boolFlags returns the names of the commands' flags that take no value.
+func boolFlags(app *cli.App) map[string]bool {
+	names := map[string]bool{}
+	for _, c := range app.Commands {
+		for _, f := range c.Flags {
+			if b, ok := f.(*cli.BoolFlag); ok {
+				for _, n := range b.Names() {
+					names[n] = true
+				}
+			}
+		}
+	}
+	return names
 }
 
 // newApp returns the command line app, writing to stdout and stderr.
@@ -86,10 +103,10 @@ func versionText() string {
 
 // flagsFirst moves the flags of a command in front of its arguments, so
 // that "rockheat run demo --trials 10" works as users expect (urfave/cli
-// stops reading flags at the first argument). Every flag of rockheat's
-// commands takes a value, given as "--flag value" or "--flag=value";
+// stops reading flags at the first argument). A flag takes a value, given
+// as "--flag value" or "--flag=value", unless it is named in bools;
 // "--" ends the flags.
-func flagsFirst(args []string) ([]string, error) {
+func flagsFirst(args []string, bools map[string]bool) ([]string, error) {
 	if len(args) < 3 {
 		return args, nil
 	}
@@ -104,7 +121,7 @@ func flagsFirst(args []string) ([]string, error) {
 		case a == "-h" || a == "--help":
 			// Help for the command, whatever else is given.
 			return append(out, "--help"), nil
-		case a == "--update" || a == "--compare-declines" || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
+		case bools[strings.TrimLeft(a, "-")] || strings.Contains(a, "=") && strings.HasPrefix(a, "-"):
 			flags = append(flags, a)
 		case strings.HasPrefix(a, "-") && len(a) > 1 && !isNumber(a):
 			if i+1 == len(args) || strings.HasPrefix(args[i+1], "--") {
@@ -126,7 +143,7 @@ func dashes(flag string) string { return "--" + strings.TrimLeft(flag, "-") }
 func flagExample(flag string) string {
 	ex := map[string]string{"trials": "100000", "seed": "12345", "workers": "2", "format": "json", "out": "report.html",
 		"plots": "charts", "samples": "trials.csv", "precision": "0.5%", "max-trials": "10000000", "target": "120",
-		"tolerance": "stat", "junit": "report.xml"}
+		"tolerance": "stat", "junit": "report.xml", "alpha": "1%"}
 	name := strings.TrimLeft(flag, "-")
 	if v, ok := ex[name]; ok {
 		return "--" + name + " " + v
@@ -137,17 +154,37 @@ func flagExample(flag string) string {
 // parsePrecision reads a relative precision given as a percentage
 // ("0.5%") or a fraction ("0.005").
 func parsePrecision(s string) (float64, error) {
-	t := strings.TrimSpace(s)
-	scale := 1.0
+	v, err := parseFraction(s)
+	if err != nil {
+		return 0, usagef("--precision %q must be a percentage or fraction between 0 and 1, e.g. 0.5%% or 0.005", s)
+	}
+	return v, nil
+}
+
+// parseFraction reads a fraction in (0, 1) given as a percentage ("1%")
+// or as a fraction ("0.01").
+func parseFraction(s string) (float64, error) {
+	t, scale := strings.TrimSpace(s), 1.0
 	if strings.HasSuffix(t, "%") {
 		t, scale = strings.TrimSpace(strings.TrimSuffix(t, "%")), 0.01
 	}
 	v, err := strconv.ParseFloat(t, 64)
-	v *= scale
-	if err != nil || !(v > 0 && v < 1) {
-		return 0, usagef("--precision %q must be a percentage or fraction between 0 and 1, e.g. 0.5%% or 0.005", s)
+	if v *= scale; err != nil || !(v > 0 && v < 1) {
+		return 0, fmt.Errorf("%q is not a fraction in (0, 1)", s)
 	}
 	return v, nil
+}
+
+// parseSeed reads the --seed flag: a whole number from 0 to 2^64 − 1.
+func parseSeed(s string) (uint64, error) {
+	seed, err := strconv.ParseUint(strings.TrimSpace(s), 10, 64)
+	switch {
+	case errors.Is(err, strconv.ErrRange):
+		return 0, usagef("--seed %s is larger than the largest seed, %d", s, uint64(math.MaxUint64))
+	case err != nil:
+		return 0, usagef("--seed %q must be a whole number from 0 to %d", s, uint64(math.MaxUint64))
+	}
+	return seed, nil
 }
 
 func isNumber(s string) bool {

@@ -62,6 +62,7 @@ func TestCommandLine(t *testing.T) {
 		{"flag without value", []string{"run", "demo", "--trials"}, 2, "--trials needs a value, e.g. --trials 100000"},
 		{"flag with text", []string{"run", "demo", "--trials", "many"}, 2, `--trials "many" must be a whole number`},
 		{"seed too large", []string{"run", "demo", "--seed", "18446744073709551616"}, 2, "larger than the largest seed, 18446744073709551615"},
+		{"regress seed too large", []string{"regress", f("seed.toml"), "--update", "--seed", "18446744073709551616"}, 2, "larger than the largest seed, 18446744073709551615"},
 		{"cap below first round", []string{"run", "demo", "--precision", "0.5%", "--max-trials", "10"}, 2,
 			"--max-trials: the trial cap 10 is below the first round of 100000 trials"},
 		{"trials as a float", []string{"validate", f("float.toml", "trials = 100000", "trials = 1e5")}, 2,

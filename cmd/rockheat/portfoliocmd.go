@@ -94,7 +94,10 @@ func loadPortfolio(arg string) (*scenarios.PortfolioFile, error) {
 // portfolioInputs lists the files a portfolio run reads: the portfolio
 // file and its prospects' scenario files.
 func portfolioInputs(arg string, pf *scenarios.PortfolioFile) []outfile.Input {
-	ins := runInputs(arg)
+	var ins []outfile.Input
+	if fi, err := os.Stat(arg); err == nil && !fi.IsDir() {
+		ins = append(ins, outfile.Input{Path: arg, Role: "the portfolio being run"})
+	}
 	for _, s := range pf.Scenarios {
 		if fi, err := os.Stat(s.Path); err == nil && !fi.IsDir() {
 			ins = append(ins, outfile.Input{Path: s.Path, Role: "a scenario of the portfolio"})

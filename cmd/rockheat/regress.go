@@ -8,7 +8,6 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
-	"strconv"
 	"strings"
 	"sync"
 	"time"
@@ -80,27 +79,13 @@ func regressFlags(c *cli.Context) (*regressConfig, error) {
 		}
 	}
 	if c.IsSet("seed") {
-		seed, err := strconv.ParseUint(strings.TrimSpace(c.String("seed")), 10, 64)
+		seed, err := parseSeed(c.String("seed"))
 		if err != nil {
-			return nil, usagef("--seed %q must be a whole number ≥ 0", c.String("seed"))
+			return nil, err
 		}
 		cfg.seed = &seed
 	}
 	return cfg, nil
-}
-
-// parseFraction reads a fraction in (0, 1) given as a percentage ("1%")
-// or as a fraction ("0.01").
-func parseFraction(s string) (float64, error) {
-	t, scale := strings.TrimSpace(s), 1.0
-	if strings.HasSuffix(t, "%") {
-		t, scale = strings.TrimSpace(strings.TrimSuffix(t, "%")), 0.01
-	}
-	v, err := strconv.ParseFloat(t, 64)
-	if v *= scale; err != nil || !(v > 0 && v < 1) {
-		return 0, fmt.Errorf("%q is not a fraction in (0, 1)", s)
-	}
-	return v, nil
 }
 
 func regress(c *cli.Context) error {

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"math"
 	"strconv"
 	"strings"
 
@@ -52,12 +51,9 @@ func trialOptions(c *cli.Context) (rockheat.Options, error) {
 		return opt, usagef("--workers %d must be at least 1", c.Int("workers"))
 	}
 	if c.IsSet("seed") {
-		seed, err := strconv.ParseUint(strings.TrimSpace(c.String("seed")), 10, 64)
-		switch {
-		case errors.Is(err, strconv.ErrRange):
-			return opt, usagef("--seed %s is larger than the largest seed, %d", c.String("seed"), uint64(math.MaxUint64))
-		case err != nil:
-			return opt, usagef("--seed %q must be a whole number from 0 to %d", c.String("seed"), uint64(math.MaxUint64))
+		seed, err := parseSeed(c.String("seed"))
+		if err != nil {
+			return opt, err
 		}
 		opt.Seed = &seed
 	}
