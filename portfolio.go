@@ -84,3 +84,10 @@ type ProspectCorrelation struct {
 // PortfolioOutputs are the outputs a portfolio adds up: the ones every
 // model kind has.
 var PortfolioOutputs = []string{"heat_in_place", "recoverable_heat", "thermal_power", "electric_power"}
+
+// The places in PortfolioOutputs, and in a portfolio's per-output results,
+// of the outputs that reports show and that targets are set on.
+const (
+	PortfolioHeat  = 0 // heat_in_place
+	PortfolioPower = 3 // electric_power, in MWe
+)

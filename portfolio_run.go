@@ -277,7 +277,7 @@ func (pw *portfolioWorker) batch(b int) error {
 // trials move whole: its inputs and outputs stay together).
 func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 	pr := pw.pr
-	const power = 3 // index of electric_power in PortfolioOutputs
+	const power = PortfolioPower
 	ranks := make([][]float64, len(pr.outcome))
 	for a, i := range pr.outcome {
 		col := pw.wks[i].out[pr.outIdx[i][power]][:n]
@@ -369,7 +369,7 @@ func (pw *portfolioWorker) add(b, n int) {
 		if !succeeded {
 			none++
 		}
-		if c.p.TargetMWe > 0 && pw.risked[3][t] >= c.p.TargetMWe {
+		if c.p.TargetMWe > 0 && pw.risked[PortfolioPower][t] >= c.p.TargetMWe {
 			reach++
 		}
 	}

@@ -48,7 +48,7 @@ func TestPortfolioIndependentNormals(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	const power = 3
+	const power = PortfolioPower
 	a, b := res.Prospects[0].Unrisked[power].Summary, res.Prospects[1].Unrisked[power].Summary
 	tot, risked := res.Unrisked[power].Summary, res.Risked[power].Summary
 	if math.Abs(tot.Mean/(a.Mean+b.Mean)-1) > 1e-12 {
@@ -93,7 +93,7 @@ func TestPortfolioComonotone(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	const power = 3
+	const power = PortfolioPower
 	s := res.Unrisked[power].Summary
 	half := (s.P90CI.Hi - s.P90CI.Lo) / 2
 	if !within(s.P90, res.SumP90[power], half, 3) {
@@ -210,7 +210,7 @@ func TestPortfolioSharesTargetAndSuccessCorrelation(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	const power = 3
+	const power = PortfolioPower
 	sa, sb := alone.Prospects[0].Unrisked[power].Summary, alone.Prospects[1].Unrisked[power].Summary
 	mu, sd := 0.5*sa.Mean+sb.Mean, math.Sqrt(0.25*sa.SD*sa.SD+sb.SD*sb.SD)
 	target := mu + 0.5*sd
@@ -240,5 +240,13 @@ func TestPortfolioSharesTargetAndSuccessCorrelation(t *testing.T) {
 	both := 0.25 + math.Asin(r)/(2*math.Pi)
 	if se := math.Sqrt(0.25 * 0.75 / n); corr.ChanceNone < 0.25+5*se || math.Abs(corr.ChanceNone-both) > 0.02 {
 		t.Errorf("P(no success) = %.4f with success correlation 0.8; want above 0.25 + 5 se and near %.3f", corr.ChanceNone, both)
+	}
+}
+
+// TestPortfolioOutputPlaces: the named places are those of their outputs.
+func TestPortfolioOutputPlaces(t *testing.T) {
+	if PortfolioOutputs[PortfolioHeat] != "heat_in_place" || PortfolioOutputs[PortfolioPower] != "electric_power" {
+		t.Errorf("PortfolioHeat, PortfolioPower = %d, %d name %q, %q", PortfolioHeat, PortfolioPower,
+			PortfolioOutputs[PortfolioHeat], PortfolioOutputs[PortfolioPower])
 	}
 }

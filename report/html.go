@@ -111,8 +111,8 @@ func newPage(r *rockheat.Result) (*page, error) {
 
 	if outs := declineOutputs(r); len(outs) > 0 {
 		d := &declineSection{Unit: outs[0].Spec.Unit}
-		alt := declineOutputs(r.Comparison)
-		if len(alt) == len(outs) {
+		alt := comparedDecline(r)
+		if alt != nil {
 			d.Compared = "P50, " + r.Comparison.Decline.String() + " decline"
 		}
 		for i, o := range outs {

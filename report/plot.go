@@ -667,7 +667,7 @@ func declineChart(r *rockheat.Result) (chart, error) {
 		ends.labels = append(ends.labels, endLabel{x: end.X, y: end.Y, text: c.name + "  " + fig(end.Y), color: c.col})
 	}
 	caption := []string{"Band: from the P90 (exceeded by 90% of trials) to the P10 (exceeded by 10%) of the thermal power at each report year, " + unit + "."}
-	if alt := declineOutputs(r.Comparison); len(alt) > 0 {
+	if alt := comparedDecline(r); alt != nil {
 		pts := make(plotter.XYs, len(alt))
 		for i, o := range alt {
 			pts[i] = plotter.XY{X: o.Spec.Year, Y: o.Summary.P50}
@@ -702,6 +702,17 @@ func declineOutputs(r *rockheat.Result) []rockheat.Output {
 	}
 	sort.SliceStable(outs, func(i, j int) bool { return outs[i].Spec.Year < outs[j].Spec.Year })
 	return outs
+}
+
+// comparedDecline returns the thermal power at each report year of r's
+// comparison (CompareDeclines), year by year beside declineOutputs(r), or
+// nil when r has none to show beside its own.
+func comparedDecline(r *rockheat.Result) []rockheat.Output {
+	alt := declineOutputs(r.Comparison)
+	if len(alt) == 0 || len(alt) != len(declineOutputs(r)) {
+		return nil
+	}
+	return alt
 }
 
 // endLabel labels the end of a line, to its right.

@@ -21,22 +21,13 @@ const NonAdditive = "Percentiles do not add: the portfolio's P90 is exceeded in 
 
 // headlineIndex are the indices, in rockheat.PortfolioOutputs, of the
 // outputs a portfolio report shows: heat in place and electric capacity.
-var headlineIndex = []int{0, 3}
+var headlineIndex = []int{rockheat.PortfolioHeat, rockheat.PortfolioPower}
 
-// PortfolioText writes a portfolio result as a summary for people.
-func PortfolioText(w io.Writer, r *rockheat.PortfolioResult) error {
-	var b strings.Builder
-	fmt.Fprintf(&b, "%s\n%s\n", r.Title, strings.Repeat("=", len([]rune(r.Title))))
-	fmt.Fprintf(&b, "Portfolio of %d prospects; %d trials (%s), seed %d\n\n", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed)
-	rows := [][]string{{"prospect", "chance", "share", "MWe P90", "P50", "P10", "mean", "risked mean"}}
-	for _, p := range r.Prospects {
-		s := p.Unrisked[3].Summary
-		rows = append(rows, []string{"  " + p.Name, pct(p.Chance), pct(p.Share), fig(s.P90), fig(s.P50), fig(s.P10), fig(s.Mean), fig(p.RiskedMean[3])})
-	}
-	b.WriteString("Prospects (unrisked electric capacity, gross; risked mean net of share):\n")
-	table(&b, rows, "lrrrrrrr")
-	b.WriteString("\nTotals, net of shares:\n")
-	rows = [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
+// portfolioTotals formats the totals of the headline outputs, unrisked
+// and risked, each followed by the sums of the prospects' P90s and P10s:
+// built once here so that the text and the HTML page agree.
+func portfolioTotals(r *rockheat.PortfolioResult) []figureRow {
+	var rows []figureRow
 	for _, o := range headlineIndex {
 		for _, t := range []struct {
 			name string
@@ -45,12 +36,36 @@ func PortfolioText(w io.Writer, r *rockheat.PortfolioResult) error {
 			out := t.outs[o]
 			unit, _, scale := portfolioUnit(r, out)
 			s := out.Summary
-			rows = append(rows, []string{"  " + out.Spec.Doc + ", " + t.name, fig(s.P90 / scale), fig(s.P50 / scale), fig(s.P10 / scale), fig(s.Mean / scale), unit},
-				[]string{"", ciText(s.P90CI, scale), ciText(s.P50CI, scale), ciText(s.P10CI, scale), "", ""})
+			rows = append(rows, figureRow{Doc: out.Spec.Doc + ", " + t.name, Unit: unit,
+				P90: fig(s.P90 / scale), P50: fig(s.P50 / scale), P10: fig(s.P10 / scale), Mean: fig(s.Mean / scale),
+				P90CI: ciText(s.P90CI, scale), P50CI: ciText(s.P50CI, scale), P10CI: ciText(s.P10CI, scale)})
 		}
-		out := r.Unrisked[o]
-		unit, _, scale := portfolioUnit(r, out)
-		rows = append(rows, []string{"  sum of the prospects' P90 and P10", fig(r.SumP90[o] / scale), "", fig(r.SumP10[o] / scale), "", unit})
+		unit, _, scale := portfolioUnit(r, r.Unrisked[o])
+		rows = append(rows, figureRow{Doc: "sum of the prospects' P90 and P10", Unit: unit,
+			P90: fig(r.SumP90[o] / scale), P10: fig(r.SumP10[o] / scale)})
+	}
+	return rows
+}
+
+// PortfolioText writes a portfolio result as a summary for people.
+func PortfolioText(w io.Writer, r *rockheat.PortfolioResult) error {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s\n%s\n", r.Title, strings.Repeat("=", len([]rune(r.Title))))
+	fmt.Fprintf(&b, "Portfolio of %d prospects; %d trials (%s), seed %d\n\n", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed)
+	rows := [][]string{{"prospect", "chance", "share", "MWe P90", "P50", "P10", "mean", "risked mean"}}
+	for _, p := range r.Prospects {
+		s := p.Unrisked[rockheat.PortfolioPower].Summary
+		rows = append(rows, []string{"  " + p.Name, pct(p.Chance), pct(p.Share), fig(s.P90), fig(s.P50), fig(s.P10), fig(s.Mean), fig(p.RiskedMean[rockheat.PortfolioPower])})
+	}
+	b.WriteString("Prospects (unrisked electric capacity, gross; risked mean net of share):\n")
+	table(&b, rows, "lrrrrrrr")
+	b.WriteString("\nTotals, net of shares:\n")
+	rows = [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}
+	for _, f := range portfolioTotals(r) {
+		rows = append(rows, []string{"  " + f.Doc, f.P90, f.P50, f.P10, f.Mean, f.Unit})
+		if f.P90CI != "" {
+			rows = append(rows, []string{"", f.P90CI, f.P50CI, f.P10CI, "", ""})
+		}
 	}
 	table(&b, rows, "lrrrrl")
 	b.WriteString("\n")

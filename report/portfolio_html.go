@@ -54,9 +54,9 @@ func newPortfolioPage(r *rockheat.PortfolioResult) *portfolioPage {
 	var files []fileHash
 	_, heatUnitName, heatScale := portfolioUnit(r, r.Unrisked[0])
 	for _, p := range r.Prospects {
-		s := p.Unrisked[3].Summary
+		s := p.Unrisked[rockheat.PortfolioPower].Summary
 		row := prospectRow{Name: p.Name, Scenario: p.Path, Chance: pct(p.Chance), Share: pct(p.Share),
-			P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10), Mean: fig(s.Mean), Risked: fig(p.RiskedMean[3]),
+			P90: fig(s.P90), P50: fig(s.P50), P10: fig(s.P10), Mean: fig(s.Mean), Risked: fig(p.RiskedMean[rockheat.PortfolioPower]),
 			HeatP50: fig(p.Unrisked[0].Summary.P50/heatScale) + " " + heatUnitName}
 		for i, f := range p.Factors {
 			if i > 0 {
@@ -67,22 +67,7 @@ func newPortfolioPage(r *rockheat.PortfolioResult) *portfolioPage {
 		pg.Prospects = append(pg.Prospects, row)
 		files = append(files, fileHash{Name: p.Name, Path: p.Path, SHA256: p.SourceSHA256})
 	}
-	for _, o := range headlineIndex {
-		for _, t := range []struct {
-			name string
-			outs []rockheat.Output
-		}{{"unrisked", r.Unrisked}, {"risked", r.Risked}} {
-			out := t.outs[o]
-			unit, _, scale := portfolioUnit(r, out)
-			s := out.Summary
-			pg.Totals = append(pg.Totals, figureRow{Doc: out.Spec.Doc + ", " + t.name, Unit: unit,
-				P90: fig(s.P90 / scale), P50: fig(s.P50 / scale), P10: fig(s.P10 / scale), Mean: fig(s.Mean / scale),
-				P90CI: ciText(s.P90CI, scale), P50CI: ciText(s.P50CI, scale), P10CI: ciText(s.P10CI, scale)})
-		}
-		unit, _, scale := portfolioUnit(r, r.Unrisked[o])
-		pg.Totals = append(pg.Totals, figureRow{Doc: "sum of the prospects' P90 and P10 (" + r.Unrisked[o].Spec.Doc + ")", Unit: unit,
-			P90: fig(r.SumP90[o] / scale), P10: fig(r.SumP10[o] / scale)})
-	}
+	pg.Totals = portfolioTotals(r)
 	pg.Chances = append(pg.Chances, fmt.Sprintf("Chance that no prospect succeeds: %s %s; expected number of successes %.3g of %d.",
 		pct(r.ChanceNone), ciPct(r.ChanceNoneCI), r.ExpectedSuccesses, len(r.Prospects)))
 	if t := r.Target; t != nil {

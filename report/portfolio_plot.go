@@ -31,7 +31,7 @@ func PortfolioExceedanceSVG(w io.Writer, r *rockheat.PortfolioResult) error {
 }
 
 func portfolioExceedanceChart(r *rockheat.PortfolioResult) (chart, error) {
-	const power = 3
+	const power = rockheat.PortfolioPower
 	unr, risk := r.Unrisked[power], r.Risked[power]
 	unit := unr.Spec.Unit
 	p := newPlot(chartTitle(r.Title, "Probability of exceeding: total electric capacity"))
@@ -96,7 +96,7 @@ func PortfolioContributionSVG(w io.Writer, r *rockheat.PortfolioResult) error {
 }
 
 func portfolioContributionChart(r *rockheat.PortfolioResult) (chart, error) {
-	const power = 3
+	const power = rockheat.PortfolioPower
 	type bar struct {
 		name string
 		v    float64

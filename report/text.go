@@ -60,8 +60,8 @@ func Text(w io.Writer, r *rockheat.Result) error {
 // declineComparisonText writes the thermal power at each report year
 // with both declines, when r has a comparison.
 func declineComparisonText(b *strings.Builder, r *rockheat.Result) {
-	outs, alt := declineOutputs(r), declineOutputs(r.Comparison)
-	if len(alt) == 0 || len(alt) != len(outs) {
+	outs, alt := declineOutputs(r), comparedDecline(r)
+	if alt == nil {
 		return
 	}
 	fmt.Fprintf(b, "\nThermal power, %s decline against %s, on the same draws (%s):\n", r.Decline, r.Comparison.Decline, outs[0].Spec.Unit)
