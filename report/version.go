@@ -1,35 +1,22 @@
 package report
 
 import (
-	"runtime/debug"
 	"time"
+
+	"rockheat/report/expect"
 )
 
 // Version returns rockheat's module version and VCS revision from the
-// build information: ("(devel)", "") for a plain go run or go test, and
-// the revision with "+dirty" when the build had uncommitted changes.
+// build information (expect.CurrentBuild): ("(devel)", "") for a plain go
+// run or go test, and the revision with "+dirty" when the build had
+// uncommitted changes.
 func Version() (version, revision string) {
-	info, ok := debug.ReadBuildInfo()
-	if !ok {
-		return "(unknown)", ""
-	}
-	version = info.Main.Version
-	if version == "" {
-		version = "(devel)"
-	}
-	dirty := false
-	for _, s := range info.Settings {
-		switch s.Key {
-		case "vcs.revision":
-			revision = s.Value
-		case "vcs.modified":
-			dirty = s.Value == "true"
-		}
-	}
-	if dirty && revision != "" {
+	b := expect.CurrentBuild()
+	revision = b.Revision
+	if b.Modified && revision != "" {
 		revision += "+dirty"
 	}
-	return version, revision
+	return b.Version, revision
 }
 
 // now is the clock of the reproducibility record; tests replace it.
