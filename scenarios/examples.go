@@ -34,25 +34,31 @@ func Examples() []Example {
 	}
 	var out []Example
 	for _, e := range entries {
-		text, err := examplesFS.ReadFile("examples/" + e.Name())
-		if err != nil {
-			panic(err)
+		if ex, ok := readExample(strings.TrimSuffix(e.Name(), path.Ext(e.Name()))); ok {
+			out = append(out, ex)
 		}
-		name := strings.TrimSuffix(e.Name(), path.Ext(e.Name()))
-		ex := Example{Name: name, Text: text}
-		// Only the title: checking every example would build every
-		// distribution's tables at each lookup.
-		var head struct {
-			Title string `toml:"title"`
-		}
-		if _, err := toml.Decode(string(text), &head); err == nil {
-			ex.Title = head.Title
-		}
-		ex.Description = describe(text, ex.Title)
-		out = append(out, ex)
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].Name < out[j].Name })
 	return out
+}
+
+// readExample reads the bundled example called name, if there is one.
+func readExample(name string) (Example, bool) {
+	text, err := examplesFS.ReadFile("examples/" + name + ".toml")
+	if err != nil {
+		return Example{}, false
+	}
+	ex := Example{Name: name, Text: text}
+	// Only the title: checking the example would build its
+	// distributions' tables.
+	var head struct {
+		Title string `toml:"title"`
+	}
+	if _, err := toml.Decode(string(text), &head); err == nil {
+		ex.Title = head.Title
+	}
+	ex.Description = describe(text, ex.Title)
+	return ex, true
 }
 
 // describe returns the first line of the comment text opens with, without
@@ -68,11 +74,11 @@ func describe(text []byte, title string) string {
 
 // LookupExample returns the bundled example with the given name.
 func LookupExample(name string) (Example, error) {
+	if ex, ok := readExample(name); ok && !strings.ContainsAny(name, "/.") {
+		return ex, nil
+	}
 	var names []string
 	for _, ex := range Examples() {
-		if ex.Name == name {
-			return ex, nil
-		}
 		names = append(names, ex.Name)
 	}
 	return Example{}, fmt.Errorf("no bundled example named %q; the examples are %s", name, strings.Join(names, ", "))
