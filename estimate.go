@@ -109,13 +109,15 @@ func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 		Correlation: corr})
 	// The sensitivity sample is the first batch of the run (all of a
 	// shorter one), held where the run does not keep every trial.
-	r.sensN = min(s.firstRound(), SensitivityTrials)
+	if !s.noSensitivity {
+		r.sensN = min(s.firstRound(), SensitivityTrials)
+	}
 	if s.KeepSamples {
 		r.keepIn = columns(len(r.sampled), s.trials)
-	} else {
+	} else if r.sensN > 0 {
 		r.sensIn = columns(len(r.sampled), r.sensN)
 	}
-	if !s.keepsOutputs() {
+	if !s.keepsOutputs() && r.sensN > 0 {
 		r.sensOut = columns(len(r.specs), r.sensN)
 	}
 	return r

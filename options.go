@@ -90,6 +90,9 @@ type settings struct {
 	maxTrials  int  // cap of a run to a precision
 	streaming  bool // outputs go to sketches
 	planTrials int  // trials the plan must cover
+	// noSensitivity leaves out the sensitivity sample (a portfolio's
+	// prospects have none).
+	noSensitivity bool
 }
 
 // resolveOptions checks opt against the checked run c.

@@ -120,7 +120,7 @@ func (pr *portfolioRun) setUp() {
 	pr.zero = make([]atomic.Int64, n)
 	for i, chk := range c.prospects {
 		s := &settings{trials: pr.trials, seed: mixSeed(pr.seed, prospectStream, uint64(i)), workers: 1,
-			stat: pr.stat, streaming: true, planTrials: pr.trials, maxTrials: pr.trials}
+			stat: pr.stat, streaming: true, planTrials: pr.trials, maxTrials: pr.trials, noSensitivity: true}
 		given := map[string]bool{}
 		for _, d := range c.shared {
 			if slices.Contains(d.to, i) {
@@ -128,7 +128,6 @@ func (pr *portfolioRun) setUp() {
 			}
 		}
 		r := newRunGiven(chk, s, given)
-		r.sensN, r.sensIn, r.sensOut = 0, nil, nil // no sensitivity in a portfolio
 		pr.runs = append(pr.runs, r)
 		idx := make([]int, len(PortfolioOutputs))
 		for o, name := range PortfolioOutputs {
@@ -229,11 +228,20 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 		sk:    &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))}}
 	for i, r := range pr.runs {
 		pw.wks = append(pw.wks, r.newWorker(0))
-		g := make([][]float64, len(r.sampled))
+		// A prospect that shares no draw takes none from the portfolio, so
+		// its batches convert their own draws to SI in place, unless the
+		// trials are kept in their units.
+		var g [][]float64
 		for j, k := range pr.given[i] {
 			if k >= 0 {
+				if g == nil {
+					g = make([][]float64, len(r.sampled))
+				}
 				g[j] = pw.shared[k]
 			}
+		}
+		if g == nil && pr.keep {
+			g = make([][]float64, len(r.sampled))
 		}
 		pw.given = append(pw.given, g)
 		pw.sk.unrisked = append(pw.sk.unrisked, newSketches(len(PortfolioOutputs)))
