@@ -27,10 +27,9 @@ type checkedPortfolio struct {
 // sharedDraw is a shared input: drawn from one prospect's distribution and
 // given to the prospects that share it.
 type sharedDraw struct {
-	name   string
-	dist   sampler.Distribution
-	to     []int // prospects given the draw
-	source int   // the prospect whose distribution it is
+	name string
+	dist sampler.Distribution
+	to   []int // prospects given the draw
 }
 
 // Validate checks p as EstimatePortfolio does and returns every problem
@@ -144,7 +143,7 @@ func (c *checkedPortfolio) checkProspect(ps *problems, i int, pr Prospect, index
 func (c *checkedPortfolio) checkShared(ps *problems, index map[string]int) {
 	for k, sh := range c.p.Shared {
 		at := func(format string, args ...any) { ps.setting("shared", k+1, format, args...) }
-		d := sharedDraw{name: sh.Input, source: -1}
+		d := sharedDraw{name: sh.Input}
 		names := sh.Prospects
 		if len(names) == 0 {
 			for _, pr := range c.p.Prospects {
@@ -168,8 +167,8 @@ func (c *checkedPortfolio) checkShared(ps *problems, index map[string]int) {
 			case c.prospects[i].correlated(sh.Input):
 				at("input %q of prospect %q is rank-correlated within the prospect; a shared input cannot be", sh.Input, name)
 			default:
-				if d.source < 0 {
-					d.source, d.dist = i, in.dist
+				if d.dist == nil { // the first sharer's distribution
+					d.dist = in.dist
 				}
 				d.to = append(d.to, i)
 			}

@@ -215,7 +215,6 @@ type portfolioWorker struct {
 	total   [][]float64   // [output] unrisked total of the batch
 	risked  [][]float64   // [output] risked total of the batch
 	tmp     []float64
-	order   [][]int32 // [prospect] scratch for outcome reordering
 	sk      *portfolioSketches
 }
 
@@ -224,8 +223,7 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 	size := min(sampler.BatchSize, pr.trials)
 	pw := &portfolioWorker{pr: pr, shared: columns(len(pr.shared), size), success: columns(n, size),
 		total: columns(len(PortfolioOutputs), size), risked: columns(len(PortfolioOutputs), size), tmp: make([]float64, size),
-		order: make([][]int32, n),
-		sk:    &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))}}
+		sk: &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))}}
 	for i, r := range pr.runs {
 		pw.wks = append(pw.wks, r.newWorker(0))
 		// A prospect that shares no draw takes none from the portfolio, so
@@ -287,6 +285,7 @@ func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 	pr := pw.pr
 	const power = PortfolioPower
 	ranks := make([][]float64, len(pr.outcome))
+	orders := make([][]int32, len(pr.outcome)) // [a] the trials in order of outcome
 	for a, i := range pr.outcome {
 		col := pw.wks[i].out[pr.outIdx[i][power]][:n]
 		keys := make([]uint64, n)
@@ -295,7 +294,7 @@ func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 			keys[t], idx[t] = radix.Key(v), int32(t)
 		}
 		_, order := radix.Sort(keys, make([]uint64, n), 0, idx, make([]int32, n))
-		pw.order[i] = order
+		orders[a] = order
 		ranks[a] = make([]float64, n)
 		for r, t := range order {
 			ranks[a][t] = float64(r)
@@ -308,7 +307,7 @@ func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 	for a, i := range pr.outcome {
 		perm := make([]int32, n) // trial t takes the trial perm[t] drew
 		for t, r := range ranks[a] {
-			perm[t] = pw.order[i][int(r)]
+			perm[t] = orders[a][int(r)]
 		}
 		wk := pw.wks[i]
 		for _, col := range append(append([][]float64(nil), wk.out...), wk.in...) {

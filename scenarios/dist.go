@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -76,7 +77,7 @@ func (c *checker) params(key, dname string, params [2][]string, tbl map[string]a
 		if p == "dist" {
 			continue
 		}
-		if !contains(all, p) {
+		if !slices.Contains(all, p) {
 			c.add(key+"."+p, "is not a parameter of a %s distribution%s; it takes %s", dname, suggest(p, all), strings.Join(all, ", "))
 			bad = true
 			continue
@@ -105,15 +106,6 @@ func (c *checker) params(key, dname string, params [2][]string, tbl map[string]a
 		}
 	}
 	return vals, !bad
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }
 
 // label describes a distribution by the parameters the file gives, in
