@@ -50,9 +50,6 @@ type Prospect struct {
 	// Share is the working interest, in (0, 1]; 0 means 1. Totals are net
 	// of it.
 	Share float64
-	// SourceSHA256 is the hex SHA-256 of the prospect's scenario file, if
-	// it was read from one, for the reproducibility record.
-	SourceSHA256 string
 }
 
 // ChanceFactor is one named component of a chance of success, such as the

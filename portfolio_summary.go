@@ -27,7 +27,7 @@ func (pr *portfolioRun) result() *PortfolioResult {
 	res.SumP90 = make([]float64, len(PortfolioOutputs))
 	res.SumP10 = make([]float64, len(PortfolioOutputs))
 	for i, pp := range p.Prospects {
-		r := ProspectResult{Name: pp.Name, Title: pp.Run.Title, Path: pp.Run.Path, SourceSHA256: pp.SourceSHA256,
+		r := ProspectResult{Name: pp.Name, Title: pp.Run.Title, Path: pp.Run.Path, SourceSHA256: pp.Run.SourceSHA256,
 			Kind: pp.Run.Model.Kind(), Chance: c.chance[i], Factors: pp.Factors, Share: c.share[i],
 			ZeroHeatTrials: int(pr.zero[i].Load())}
 		for _, w := range c.prospects[i].warnings {

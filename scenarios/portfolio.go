@@ -20,15 +20,12 @@ var portfoliosFS embed.FS
 
 // PortfolioFile is a checked portfolio file and the scenarios it names.
 type PortfolioFile struct {
+	// Portfolio is the portfolio the file describes, ready to estimate.
 	Portfolio rockheat.Portfolio
-	// Path is the file's path as given; Source is its text.
-	Path   string
-	Source []byte
 	// Scenarios are the prospects' scenarios, in the order of the
-	// prospects.
+	// prospects (their warnings reach the result through each prospect's
+	// Run).
 	Scenarios []*Scenario
-	// Warnings are the prospects' scenarios' warnings.
-	Warnings Problems
 }
 
 // ChanceFactors are the named components a chance of success may be
@@ -118,7 +115,7 @@ func ParsePortfolio(path, dir string, src []byte) (*PortfolioFile, error) {
 		}
 		c.add(k.String(), "unknown key%s; remove it or correct its spelling", suggest(k.String(), portfolioKeys))
 	}
-	pf := &PortfolioFile{Path: path, Source: src}
+	pf := &PortfolioFile{}
 	p := &pf.Portfolio
 	p.Title = strings.TrimSpace(r.Title)
 	if p.Title == "" {
@@ -146,9 +143,7 @@ func ParsePortfolio(path, dir string, src []byte) (*PortfolioFile, error) {
 			}
 		} else {
 			pr.Run = &s.Run
-			pr.SourceSHA256 = s.Run.SourceSHA256
 			pf.Scenarios = append(pf.Scenarios, s)
-			pf.Warnings = append(pf.Warnings, s.Warnings...)
 		}
 		p.Prospects = append(p.Prospects, pr)
 	}

@@ -27,7 +27,7 @@ func TestBundledPortfolio(t *testing.T) {
 			t.Errorf("%s: first prospect's factors %+v", name, got)
 		}
 		for _, pr := range p.Prospects {
-			if len(pr.SourceSHA256) != 64 {
+			if len(pr.Run.SourceSHA256) != 64 {
 				t.Errorf("%s: prospect %s has no scenario hash", name, pr.Name)
 			}
 		}
