@@ -22,7 +22,9 @@ func TestReferenceCitations(t *testing.T) {
 	for _, m := range regexp.MustCompile(`(?m)^## (§\d+) `).FindAllStringSubmatch(string(doc), -1) {
 		sections[m[1]] = true
 	}
-	cite := regexp.MustCompile(`docs/references\.md\s+((?:§\d+/?)+)`)
+	cite := regexp.MustCompile(`docs/references\.md\s+((?:§\d+(?:[/,]\s*)?)+)`)
+	sect := regexp.MustCompile(`§\d+`)
+	wrapped := regexp.MustCompile(`\n\s*//\s*`)
 	n := 0
 	err = filepath.WalkDir(".", func(path string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() && strings.HasPrefix(d.Name(), ".") && path != "." {
@@ -38,12 +40,9 @@ func TestReferenceCitations(t *testing.T) {
 		if err != nil {
 			return err
 		}
-		text := strings.ReplaceAll(string(src), "\n//", "") // citations may wrap
+		text := wrapped.ReplaceAllString(string(src), " ") // citations may wrap, in indented comments too
 		for _, m := range cite.FindAllStringSubmatch(text, -1) {
-			for _, s := range strings.Split(m[1], "/") {
-				if s == "" {
-					continue
-				}
+			for _, s := range sect.FindAllString(m[1], -1) {
 				n++
 				if !sections[s] {
 					t.Errorf("%s cites docs/references.md %s, which has no such section", path, s)
