@@ -72,14 +72,14 @@ func TestModelProblems(t *testing.T) {
 		{"report years for reservoir", strings.Replace(good, `kind = "reservoir"`, "kind = \"reservoir\"\nreport_years = [1]", 1), []string{"model.report_years", "hot-rock"}},
 		{"zero gradient", strings.Replace(hotRock, "min = 28, max = 36", "min = 0, max = 36", 1), []string{"inputs.gradient_c_per_km", "limit"}},
 		{"negative gradient", strings.Replace(hotRock, "min = 28, max = 36", "min = -5, max = 36", 1), []string{"inputs.gradient_c_per_km", "outside the valid range"}},
-		{"zero flow", strings.Replace(hotRock, "min = 0.3, max = 0.7", "min = 0, max = 0.7", 1), []string{"inputs.flow_per_area_m3_s_km2"}},
+		{"zero flow", strings.Replace(hotRock, "min = 0.3, max = 0.7", "min = 0, max = 0.7", 1), []string{"inputs.flow_per_area_m3_s_km2", "outside the valid range [1e-06, 1000]"}},
 		{"too shallow for any heat", strings.Replace(hotRock, "min = 5, max = 6 }", "min = 1, max = 3 }", 1), []string{"inputs.max_depth_km", "no trial has useful heat"}},
 		{"layers out of order", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
 			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n[[layers]]\nbottom_km = 2\ngradient_c_per_km = 25\n",
 			[]string{"layers[2]", "bottom reaches 2 km, not below layer 1's"}},
 		{"layers and gradient", hotRock + "[[layers]]\nbottom_km = 3\ngradient_c_per_km = 40\n", []string{"inputs.gradient_c_per_km", "remove it or the layers"}},
 		{"layer gradient zero", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n", "", 1) +
-			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 0\n", []string{"layers", "gradient"}},
+			"[[layers]]\nbottom_km = 3\ngradient_c_per_km = 0\n", []string{"layers[1].gradient_c_per_km", "outside the valid range (0, 1000]"}},
 		{"heat flow with no useful depth", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n",
 			"heat_flow_mw_m2 = 30\nconductivity_w_mk = 3.5\nheat_production_uw_m3 = 3\n", 1), []string{"inputs.max_depth_km", "no trial has useful heat"}},
 		{"heat flow without conductivity", strings.Replace(hotRock, "gradient_c_per_km = { dist = \"uniform\", min = 28, max = 36 }\n",
@@ -94,8 +94,8 @@ func TestModelProblems(t *testing.T) {
 			"[[layers]]\nbottom_km = 3\ngradeint_c_per_km = 30\n", []string{"layers[1].gradeint_c_per_km", `did you mean "gradient_c_per_km"`}},
 		{"unknown decline", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"linear\"", 1), []string{"model.decline", `"fractures"`}},
 		{"decline for reservoir", strings.Replace(good, `kind = "reservoir"`, "kind = \"reservoir\"\ndecline = \"fractures\"", 1), []string{"model.decline", "hot-rock"}},
-		{"fracture spacing zero", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1) +
-			"", []string{"fracture_spacing_m", "missing"}},
+		{"fracture spacing missing", strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1),
+			[]string{"fracture_spacing_m", "missing"}},
 		{"flow path longer than the block", strings.Replace(strings.Replace(hotRock, `kind = "hot-rock"`, "kind = \"hot-rock\"\ndecline = \"fractures\"", 1),
 			"life_years = 30", "life_years = 30\nfracture_spacing_m = 100\nflow_path_m = 3000\nrock_conductivity_w_mk = 3", 1),
 			[]string{"inputs.flow_path_m", "longer than the side of the smallest block"}},
@@ -116,7 +116,7 @@ func TestModelProblems(t *testing.T) {
 		{"correlation with unknown input", withCorr("[[correlations]]\ninputs = [\"porosity\", \"porosty\"]\nrank = -0.6\n"),
 			[]string{"correlations[1]", "porosty", `did you mean "porosity"`}},
 		{"correlation out of range", withCorr("[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\nrank = 1.5\n"),
-			[]string{"correlations"}},
+			[]string{"correlations", "= 1.5 is outside [-1, 1]"}},
 		{"correlations not positive definite", withCorr("[[correlations]]\ninputs = [\"porosity\", \"area_km2\"]\nrank = 0.9\n" +
 			"[[correlations]]\ninputs = [\"area_km2\", \"thickness_m\"]\nrank = 0.9\n" +
 			"[[correlations]]\ninputs = [\"porosity\", \"thickness_m\"]\nrank = -0.9\n"),
