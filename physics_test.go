@@ -237,7 +237,7 @@ power_density_mwe_km2 = 12
 	if got := res.Outputs[0].Summary.P50; math.Abs(got-92.4) > 1e-12 {
 		t.Errorf("power-density kind: %g MWe, want 92.4", got)
 	}
-	src := strings.Replace(strings.Replace(demoText(t), `area_km2 = { dist = "triangular", min = 3, mode = 6, max = 14 }`, "area_km2 = 5", 1), "[run]", "[run]\n", 1)
+	src := strings.Replace(demoText(t), `area_km2 = { dist = "triangular", min = 3, mode = 6, max = 14 }`, "area_km2 = 5", 1)
 	res, err = rockheat.Estimate(&mustParse(t, src).Run, rockheat.Options{Trials: 2000, KeepSamples: true})
 	if err != nil {
 		t.Fatal(err)

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	stdhtml "html"
 	"image"
 	"image/png"
 	"io"
@@ -126,7 +127,7 @@ func TestPagesInBrowser(t *testing.T) {
 				Charts [][2]float64
 				Errors []string
 			}
-			if err := json.Unmarshal(unescapeHTML(m[1]), &got); err != nil {
+			if err := json.Unmarshal([]byte(stdhtml.UnescapeString(string(m[1]))), &got); err != nil {
 				t.Fatalf("probe %s: %v", m[1], err)
 			}
 			if len(got.Errors) > 0 {
@@ -158,11 +159,6 @@ func renderPage[R any](t *testing.T, render func(w io.Writer, r R) error, r R) [
 		t.Fatal(err)
 	}
 	return b.Bytes()
-}
-
-func unescapeHTML(b []byte) []byte {
-	r := strings.NewReplacer("&quot;", `"`, "&amp;", "&", "&lt;", "<", "&gt;", ">", "&#39;", "'")
-	return []byte(r.Replace(string(b)))
 }
 
 // notBlank reports an error unless the PNG at path has both light and

@@ -21,15 +21,11 @@ import (
 // the method, any warnings and the caution. All text is HTML-escaped.
 // Nothing is written if the page cannot be built.
 func HTML(w io.Writer, r *rockheat.Result) error {
-	pg, err := newPage(r)
-	if err != nil {
-		return err
-	}
 	var b bytes.Buffer
-	if err := pageTemplate.Execute(&b, pg); err != nil {
+	if err := pageTemplate.Execute(&b, newPage(r)); err != nil {
 		return fmt.Errorf("rendering the HTML report: %w", err)
 	}
-	_, err = b.WriteTo(w)
+	_, err := b.WriteTo(w)
 	return err
 }
 
@@ -70,7 +66,7 @@ type declineSection struct {
 
 type yearRow struct{ Year, P90, P50, P10, Compared string }
 
-func newPage(r *rockheat.Result) (*page, error) {
+func newPage(r *rockheat.Result) *page {
 	pg := &page{
 		Title:      r.Title,
 		Path:       r.Path,
@@ -133,7 +129,7 @@ func newPage(r *rockheat.Result) (*page, error) {
 	pg.Sensitivity = sensSections(r)
 	pg.SensNotes = sensNotes(r)
 	pg.Correlations = correlationLines(r)
-	return pg, nil
+	return pg
 }
 
 // inlineSVG renders a chart with draw and returns it for inlining in

@@ -500,7 +500,7 @@ func tornadoChart(r *rockheat.Result, output string) (chart, error) {
 	sort.SliceStable(bars, func(i, j int) bool {
 		return math.Abs(bars[i].high-bars[i].low) > math.Abs(bars[j].high-bars[j].low)
 	})
-	more := len(bars) - min(len(bars), TornadoInputs) // counted before the cut
+	more := max(0, len(bars)-TornadoInputs) // counted before the cut
 	bars = bars[:len(bars)-more]
 	n := len(bars)
 

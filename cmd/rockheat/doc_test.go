@@ -92,12 +92,7 @@ func TestREADMECommands(t *testing.T) {
 	if block == nil {
 		t.Fatal("the Using it section has no sh block")
 	}
-	dir := t.TempDir()
-	wd, _ := os.Getwd()
-	if err := os.Chdir(dir); err != nil {
-		t.Fatal(err)
-	}
-	defer os.Chdir(wd)
+	t.Chdir(t.TempDir())
 	n := 0
 	for _, line := range strings.Split(block[1], "\n") {
 		line = strings.TrimSpace(strings.SplitN(line, "#", 2)[0])

@@ -7,6 +7,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"syscall"
 	"testing"
@@ -51,7 +52,7 @@ func build(t *testing.T, spec ...string) {
 			mode := os.FileMode(0o644)
 			if len(f) == 3 {
 				var m uint64
-				m, err = parseOctal(f[2])
+				m, err = strconv.ParseUint(f[2], 8, 32)
 				mode = os.FileMode(m)
 			}
 			if err == nil {
@@ -75,17 +76,6 @@ func build(t *testing.T, spec ...string) {
 			t.Fatalf("%s: %v", s, err)
 		}
 	}
-}
-
-func parseOctal(s string) (uint64, error) {
-	var m uint64
-	for _, c := range s {
-		if c < '0' || c > '7' {
-			return 0, errors.New("bad mode " + s)
-		}
-		m = 8*m + uint64(c-'0')
-	}
-	return m, nil
 }
 
 // snapshot describes every file under the current folder: name, type,

@@ -11,12 +11,14 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 reps=${1:-5}
 shift || true
-sizes=("${@:-1000000 10000000}")
+if [ $# -gt 0 ]; then sizes=("$@"); else sizes=(1000000 10000000); fi
 python=${PYTHON:-/usr/bin/python3}
-bin=$(mktemp -d)/rockheat
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+bin=$tmp/rockheat
 go build -o "$bin" ./cmd/rockheat
-log=$(mktemp)
-for n in ${sizes[@]}; do
+log=$tmp/times.log
+for n in "${sizes[@]}"; do
 	for _ in $(seq "$reps"); do
 		/usr/bin/time -a -o "$log" -f "numpy $n %e %U %S %M" "$python" testdata/bench/numpy_demo.py "$n" >/dev/null
 		/usr/bin/time -a -o "$log" -f "rockheat $n %e %U %S %M" "$bin" run demo --trials "$n" >/dev/null
