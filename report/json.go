@@ -190,8 +190,12 @@ type jsonCompared struct {
 
 // JSON writes r in the JSON contract: title, kind, trials, seed,
 // sampling, outputs (an object keyed by output name in model order, each
-// with unit, p90, p50, p10, mean, sd, min, max and confidence intervals),
-// zero_heat_trials, inputs, warnings and the caution.
+// with unit, p90, p50, p10, mean, sd, min, max and confidence intervals,
+// an interval null when the run is too short to give it, with the
+// coverage asked and achieved), zero_heat_trials, sensitivity, the method
+// (percentiles exact or from a sketch, and its relative error), for a
+// hot-rock run its decline and, when asked, compared_decline (the other
+// decline on the same draws), inputs, warnings and the caution.
 func JSON(w io.Writer, r *rockheat.Result) error {
 	jr := jsonResult{Title: r.Title, Kind: r.Kind.String(), Fluid: r.Fluid.String(), Conversion: r.Conversion.String(), Trials: r.Trials, Seed: r.Seed, Sampling: r.Sampling.String(),
 		Convention: Convention, Outputs: outputsObject(r.Outputs, r.Confidence), ZeroHeatTrials: r.ZeroHeatTrials,
