@@ -156,7 +156,7 @@ func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 
 // runNote is the right-hand footnote of a chart: what the run was.
 func runNote(r *rockheat.Result) string {
-	return fmt.Sprintf("%d trials, %s, seed %d", r.Trials, samplingName(r.Sampling), r.Seed)
+	return runLine(r)
 }
 
 // ExceedanceSVG writes, as an SVG document, the exceedance curve of the

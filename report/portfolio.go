@@ -51,7 +51,7 @@ func portfolioTotals(r *rockheat.PortfolioResult) []figureRow {
 func PortfolioText(w io.Writer, r *rockheat.PortfolioResult) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s\n%s\n", r.Title, strings.Repeat("=", len([]rune(r.Title))))
-	fmt.Fprintf(&b, "Portfolio of %d prospects; %d trials (%s), seed %d\n\n", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed)
+	fmt.Fprintf(&b, "Portfolio of %d prospects; %s\n\n", len(r.Prospects), trialsText(r.Trials, r.Sampling, r.Seed))
 	rows := [][]string{{"prospect", "chance", "share", "MWe P90", "P50", "P10", "mean", "risked mean"}}
 	for _, p := range r.Prospects {
 		s := p.Unrisked[rockheat.PortfolioPower].Summary

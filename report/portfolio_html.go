@@ -49,7 +49,7 @@ func PortfolioHTML(w io.Writer, r *rockheat.PortfolioResult) error {
 
 func newPortfolioPage(r *rockheat.PortfolioResult) *portfolioPage {
 	pg := &portfolioPage{Title: r.Title, Level: fmt.Sprintf("%.0f%%", 100*r.Confidence),
-		Run:     fmt.Sprintf("%d prospects; %d trials (%s), seed %d", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed),
+		Run:     fmt.Sprintf("%d prospects; %s", len(r.Prospects), trialsText(r.Trials, r.Sampling, r.Seed)),
 		Caution: Caution, Convention: Convention, NonAdditive: NonAdditive, Links: portfolioLinks(r), Warnings: r.Warnings}
 	var files []fileHash
 	_, heatUnitName, heatScale := portfolioUnit(r, r.Unrisked[0])

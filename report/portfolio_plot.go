@@ -16,7 +16,7 @@ import (
 
 // portfolioNote is the footnote of a portfolio chart: what the run was.
 func portfolioNote(r *rockheat.PortfolioResult) string {
-	return fmt.Sprintf("%d prospects, %d trials, %s, seed %d", len(r.Prospects), r.Trials, samplingName(r.Sampling), r.Seed)
+	return fmt.Sprintf("%d prospects, %s", len(r.Prospects), trialsText(r.Trials, r.Sampling, r.Seed))
 }
 
 // PortfolioExceedanceSVG writes, as an SVG document, the exceedance curves

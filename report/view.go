@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"rockheat"
+	"rockheat/sampler"
 	"rockheat/stats"
 )
 
@@ -162,8 +163,12 @@ func correlationLines(r *rockheat.Result) []string {
 }
 
 // runLine says how many trials ran, how they were drawn and the seed.
-func runLine(r *rockheat.Result) string {
-	return fmt.Sprintf("%d trials (%s), seed %d", r.Trials, samplingName(r.Sampling), r.Seed)
+func runLine(r *rockheat.Result) string { return trialsText(r.Trials, r.Sampling, r.Seed) }
+
+// trialsText is the sentence every report and chart uses for a run's
+// trials, sampling and seed.
+func trialsText(trials int, m sampler.Method, seed uint64) string {
+	return fmt.Sprintf("%d trials (%s), seed %d", trials, samplingName(m), seed)
 }
 
 // swingFig formats a swing figure, or a dash where the model gave none.
