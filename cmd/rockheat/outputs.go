@@ -15,8 +15,9 @@ import (
 	"rockheat/report/outfile"
 )
 
-// chartPatterns match the names writePlots gives its charts; no other
-// output may have one of them in the --plots folder.
+// chartPatterns match the names writePlots and writePortfolioPlots give
+// their charts; no other output may have one of them in the --plots
+// folder.
 var chartPatterns = []string{"exceedance-*.svg", "tornado-*.svg", "decline.svg", "portfolio-*.svg"}
 
 // outputs are the files and standard output a run writes, checked before
@@ -67,20 +68,22 @@ func planOutputs(c *cli.Context, inputs []outfile.Input) (*outputs, error) {
 	return o, nil
 }
 
-// write writes every output of res, all or nothing.
-func (o *outputs) write(res *rockheat.Result, render func(io.Writer, *rockheat.Result) error) error {
+// write writes every output of a run, all or nothing: its kept trials
+// (samples, nil unless --samples asked for them), its charts (plots) and
+// its report (render).
+func (o *outputs) write(samples *rockheat.Samples, plots func(*outfile.Folder) error, render func(io.Writer) error) error {
 	return o.commit(func() error {
 		if o.samples != nil {
-			if err := o.samples.Write(func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
+			if err := o.samples.Write(func(w io.Writer) error { return report.SamplesCSV(w, samples) }); err != nil {
 				return err
 			}
 		}
 		if o.plots != nil {
-			if err := writePlots(o.plots, res); err != nil {
+			if err := plots(o.plots); err != nil {
 				return err
 			}
 		}
-		return o.report.Write(func(w io.Writer) error { return render(w, res) })
+		return o.report.Write(render)
 	})
 }
 

@@ -60,24 +60,18 @@ func portfolioCommand() *cli.Command {
 			if err != nil {
 				return flagError(err)
 			}
-			return outs.commit(func() error {
-				if outs.samples != nil {
-					if err := outs.samples.Write(func(w io.Writer) error { return report.SamplesCSV(w, res.Samples) }); err != nil {
-						return err
-					}
-				}
-				if outs.plots != nil {
-					if err := writeChart(outs.plots, "portfolio-exceedance.svg", func(w io.Writer) error { return report.PortfolioExceedanceSVG(w, res) }); err != nil {
-						return err
-					}
-					if err := writeChart(outs.plots, "portfolio-contributions.svg", func(w io.Writer) error { return report.PortfolioContributionSVG(w, res) }); err != nil {
-						return err
-					}
-				}
-				return outs.report.Write(func(w io.Writer) error { return render(w, res) })
-			})
+			return outs.write(res.Samples, func(dir *outfile.Folder) error { return writePortfolioPlots(dir, res) },
+				func(w io.Writer) error { return render(w, res) })
 		},
 	}
+}
+
+// writePortfolioPlots writes the charts of a portfolio run into dir.
+func writePortfolioPlots(dir *outfile.Folder, res *rockheat.PortfolioResult) error {
+	if err := writeChart(dir, "portfolio-exceedance.svg", func(w io.Writer) error { return report.PortfolioExceedanceSVG(w, res) }); err != nil {
+		return err
+	}
+	return writeChart(dir, "portfolio-contributions.svg", func(w io.Writer) error { return report.PortfolioContributionSVG(w, res) })
 }
 
 // loadPortfolio reads a portfolio; a file that cannot be read is a usage

@@ -114,7 +114,8 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return flagError(err)
 			}
-			return outs.write(res, render)
+			return outs.write(res.Samples, func(dir *outfile.Folder) error { return writePlots(dir, res) },
+				func(w io.Writer) error { return render(w, res) })
 		},
 	}
 }
