@@ -13,6 +13,24 @@ import (
 // batches draws and evaluates batches [from, to) of the plan on the
 // workers.
 func (r *run) batches(from, to int) error {
+	return forBatches(r.s.workers, from, to, func(w int) func(b int) error {
+		wk := r.newWorker(w)
+		return func(b int) error {
+			n, z, err := wk.batch(b, nil)
+			if err == nil {
+				r.add(wk, n, z)
+			}
+			return err
+		}
+	})
+}
+
+// forBatches runs batches [from, to) on at most workers goroutines, each
+// with the batch function that newWork(w) gives goroutine w; batches are
+// taken in order from a shared counter. It returns the error of the
+// lowest batch that failed, whatever the workers: every batch below it
+// has run.
+func forBatches(workers, from, to int, newWork func(w int) func(b int) error) error {
 	var (
 		next     atomic.Int64
 		wg       sync.WaitGroup
@@ -21,18 +39,24 @@ func (r *run) batches(from, to int) error {
 		firstErr error
 	)
 	next.Store(int64(from))
-	for w := 0; w < min(r.s.workers, to-from); w++ {
+	for w := 0; w < min(workers, to-from); w++ {
+		work := newWork(w)
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			if b, err := r.newWorker(w).work(&next, to); err != nil {
-				// The error of the lowest batch, whatever the workers: batches
-				// are taken in order, so every batch below it has run.
-				mu.Lock()
-				if b < errBatch {
-					errBatch, firstErr = b, err
+			for {
+				b := int(next.Add(1) - 1)
+				if b >= to {
+					return
 				}
-				mu.Unlock()
+				if err := work(b); err != nil {
+					mu.Lock()
+					if b < errBatch {
+						errBatch, firstErr = b, err
+					}
+					mu.Unlock()
+					return
+				}
 			}
 		}()
 	}
@@ -85,23 +109,6 @@ func (r *run) newEvaluator() (evaluator, []*heatmodel.Column) {
 		}
 	}
 	return ev, cols
-}
-
-// work processes batches until none is left below to. On an error it
-// returns the batch that failed.
-func (wk *worker) work(next *atomic.Int64, to int) (int, error) {
-	r := wk.r
-	for {
-		b := int(next.Add(1) - 1)
-		if b >= to {
-			return b, nil
-		}
-		n, z, err := wk.batch(b, nil)
-		if err != nil {
-			return b, err
-		}
-		r.add(wk, n, z)
-	}
 }
 
 // batch draws and evaluates batch b into wk.out, in report units, and

@@ -4,7 +4,6 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"slices"
-	"sync"
 	"sync/atomic"
 
 	"gonum.org/v1/gonum/mat"
@@ -170,39 +169,13 @@ func involved(pairs []ProspectCorrelation, prospects []Prospect, m *mat.SymDense
 // runBatches runs every batch on the workers; the error of the lowest
 // failing batch is returned, whatever the workers.
 func (pr *portfolioRun) runBatches() error {
-	var (
-		next     atomic.Int64
-		wg       sync.WaitGroup
-		mu       sync.Mutex
-		errBatch = pr.batches
-		firstErr error
-	)
 	nw := max(1, min(pr.workers, pr.batches))
 	pr.parts = make([]*portfolioSketches, nw)
-	for w := range nw {
+	return forBatches(nw, 0, pr.batches, func(w int) func(b int) error {
 		pw := pr.newWorker()
 		pr.parts[w] = pw.sk
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				b := int(next.Add(1) - 1)
-				if b >= pr.batches {
-					return
-				}
-				if err := pw.batch(b); err != nil {
-					mu.Lock()
-					if b < errBatch {
-						errBatch, firstErr = b, err
-					}
-					mu.Unlock()
-					return
-				}
-			}
-		}()
-	}
-	wg.Wait()
-	return firstErr
+		return pw.batch
+	})
 }
 
 // portfolioWorker is one goroutine's share of a portfolio run.
