@@ -11,11 +11,11 @@ import (
 // quantile sketches (within SketchRelErr of the exact order statistics).
 type PortfolioResult struct {
 	Title        string
-	Trials       int
-	Seed         uint64
-	Sampling     sampler.Method
-	Confidence   float64
-	SketchRelErr float64
+	Trials       int            // trials run, the same for every prospect
+	Seed         uint64         // the portfolio's seed, from which each prospect's streams are mixed
+	Sampling     sampler.Method // how every prospect's inputs were drawn
+	Confidence   float64        // the level of the confidence intervals
+	SketchRelErr float64        // the sketches' relative error bound
 
 	Prospects []ProspectResult
 	// Unrisked is the total, net of the shares, with every prospect
@@ -23,7 +23,8 @@ type PortfolioResult struct {
 	// in the trials where it fails.
 	Unrisked, Risked []Output
 	// SumP90 and SumP10 are, per output, the sums of the prospects' net
-	// P90s and P10s: what adding percentiles would (wrongly) give.
+	// P90s and P10s, in the output's report unit: what adding percentiles
+	// would (wrongly) give.
 	SumP90, SumP10 []float64
 	// ChanceNone is the share of trials in which no prospect succeeds,
 	// with its confidence interval; ExpectedSuccesses the sum of the
@@ -46,20 +47,22 @@ type PortfolioResult struct {
 
 // ProspectResult is one prospect's part of a portfolio run.
 type ProspectResult struct {
+	// Name is the prospect's in the portfolio; Title, Path and
+	// SourceSHA256 (hex SHA-256) are those of its scenario.
 	Name, Title, Path, SourceSHA256 string
 	Kind                            heatmodel.Kind
-	Chance                          float64
-	Factors                         []ChanceFactor
-	Share                           float64
+	Chance                          float64        // chance of success, [0, 1]
+	Factors                         []ChanceFactor // the factors Chance is the product of, if given
+	Share                           float64        // working interest, (0, 1]
 	// Unrisked are the prospect's own outputs, gross (not net of its
 	// share), as if it succeeds.
 	Unrisked []Output
 	// RiskedMean is, per output, the mean over the trials of the net
 	// contribution: share × output in the trials where the prospect
-	// succeeds, 0 where it fails.
+	// succeeds, 0 where it fails, in the output's report unit.
 	RiskedMean     []float64
-	ZeroHeatTrials int
-	Warnings       []string
+	ZeroHeatTrials int      // trials with no heat, counted as in Result
+	Warnings       []string // the prospect's own run's warnings
 }
 
 // TargetResult is the chance that a portfolio's risked total electric

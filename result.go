@@ -8,20 +8,20 @@ import (
 
 // Result is what a run found.
 type Result struct {
-	Title string
-	Path  string
+	Title string // the Run's
+	Path  string // the Run's scenario file, "" for a run built in Go
 	// SourceSHA256 is the Run's: the hex SHA-256 of its scenario file.
 	SourceSHA256 string
-	Kind         heatmodel.Kind
+	Kind         heatmodel.Kind // the model's
 	// Fluid and Conversion are the model's fluid property source and
 	// conversion route.
 	Fluid      heatmodel.FluidSource
 	Conversion heatmodel.Conversion
 	// Decline is a hot-rock result's drawdown model.
 	Decline  heatmodel.Decline
-	Trials   int // trials run
-	Seed     uint64
-	Sampling sampler.Method
+	Trials   int            // trials run
+	Seed     uint64         // the seed of every random stream of the run
+	Sampling sampler.Method // how the inputs were drawn
 	// PerBatch is true when a Latin hypercube run had more than one batch:
 	// each batch of sampler.BatchSize trials is stratified on its own.
 	PerBatch bool
@@ -36,6 +36,7 @@ type Result struct {
 	Precision float64
 	Converged bool
 
+	// Inputs are the run's inputs, sampled or fixed, in the model's order.
 	Inputs []Input
 	// Correlations are the target rank correlations among the inputs.
 	Correlations []Correlation
