@@ -3,6 +3,7 @@ package scenarios
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"sort"
@@ -11,6 +12,15 @@ import (
 
 	"rockheat/sampler"
 )
+
+// distNames lists the distributions of distParams, quoted, for messages.
+func distNames() string {
+	var names []string
+	for _, n := range slices.Sorted(maps.Keys(distParams)) {
+		names = append(names, strconv.Quote(n))
+	}
+	return strings.Join(names, ", ")
+}
 
 // distParams lists the parameters of each distribution: required, then optional.
 var distParams = map[string][2][]string{
@@ -45,7 +55,7 @@ func (c *checker) distribution(name string, v any) (sampler.Distribution, bool) 
 	dname, _ := tbl["dist"].(string)
 	params, known := distParams[dname]
 	if !known {
-		c.add(key, "dist = %v is not a distribution rockheat knows; use one of \"uniform\", \"triangular\", \"pert\", \"normal\", \"lognormal\"", quoteAny(tbl["dist"]))
+		c.add(key, "dist = %v is not a distribution rockheat knows; use one of %s", quoteAny(tbl["dist"]), distNames())
 		return nil, false
 	}
 	vals, ok := c.params(key, dname, params, tbl)
