@@ -328,7 +328,7 @@ func typeMessage(key, dest, value string) string {
 var typeExamples = map[string]string{
 	"title": `"Example prospect"`, "run.trials": "100000", "run.seed": "12345", "run.sampling": `"lhs"`,
 	"model.kind": `"reservoir"`, "model.fluid": `"if97"`, "model.conversion": `"exergy"`,
-	"model.report_years": "[0, 10, 20, 30]",
+	"model.report_years":  "[0, 10, 20, 30]",
 	"correlations.inputs": `["porosity", "rock_density_kg_m3"]`, "correlations.rank": "-0.5",
 }
 
