@@ -280,7 +280,6 @@ type reservoirEval struct {
 	freeze                       bool // build the one geotherm of fixed parameters on the first batch
 	geo                          heatmodel.GeothermColumns
 	surface, top                 heatmodel.Column
-	temps                        []float64 // the batch's reservoir temperatures, K, from geo
 	pressure, depth, utilization heatmodel.Column
 	evalBase
 }
@@ -288,12 +287,13 @@ type reservoirEval struct {
 func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	r := e.r // the columns set for this batch; fluid steps replace some
 	if e.geotherm {
-		tr, err := e.meanTemperatures(n, r.Thickness)
+		// Into the reservoir_temp output itself, which the model reads and
+		// does not write.
+		tr, err := e.meanTemperatures(n, r.Thickness, out[5][:n])
 		if err != nil {
 			return 0, err
 		}
 		r.ReservoirTemp = tr
-		copy(out[5][:n], tr.Values)
 	}
 	if e.fluid == heatmodel.FluidIF97 {
 		p := e.pressure
@@ -317,25 +317,22 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	}), nil
 }
 
-// meanTemperatures returns each trial's reservoir temperature, K: the
+// meanTemperatures returns, written into t, each trial's reservoir
+// temperature, K: the
 // exact mean of its geotherm over the reservoir, Ts + MeanRise(top,
 // top + thickness). With fixed fluid properties the heat in place is
 // linear in the temperature, so the mean gives it exactly; with IF97
 // fluid or the exergy route (ρf·cf and W/Qr depend on the temperature)
 // it is an approximation, close while the temperature varies little over
 // the thickness.
-func (e *reservoirEval) meanTemperatures(n int, thickness heatmodel.Column) (heatmodel.Column, error) {
+func (e *reservoirEval) meanTemperatures(n int, thickness heatmodel.Column, t []float64) (heatmodel.Column, error) {
 	if e.freeze {
 		if err := e.geo.Freeze(); err != nil {
 			return heatmodel.Column{}, err
 		}
 		e.freeze = false
 	}
-	if cap(e.temps) < n {
-		e.temps = make([]float64, n)
-	}
-	t := e.temps[:n]
-	for i := range t {
+	for i := range t[:n] {
 		p, err := e.geo.At(i)
 		if err != nil {
 			return heatmodel.Column{}, err
