@@ -87,10 +87,20 @@ func LookupExample(name string) (Example, error) {
 // Load reads the scenario at arg: a file path, or the name of a bundled
 // example when no such file exists and arg has no .toml suffix.
 func Load(arg string) (*Scenario, error) {
-	if _, err := os.Stat(arg); err != nil && !strings.HasSuffix(arg, ".toml") && !strings.ContainsRune(arg, '/') {
+	if bundledName(arg) {
 		if ex, err := LookupExample(arg); err == nil {
 			return Parse("example "+ex.Name, ex.Text)
 		}
 	}
 	return LoadFile(arg)
+}
+
+// bundledName reports whether arg may name a bundled file: it is not a
+// file here and looks like no path (no .toml suffix, no slash).
+func bundledName(arg string) bool {
+	if strings.HasSuffix(arg, ".toml") || strings.ContainsRune(arg, '/') {
+		return false
+	}
+	_, err := os.Stat(arg)
+	return err != nil
 }

@@ -17,14 +17,17 @@ import (
 	"rockheat/sampler"
 )
 
+// rawRun is the [run] table that scenario and portfolio files share.
+type rawRun struct {
+	Trials   *int64  `toml:"trials"`
+	Seed     *int64  `toml:"seed"`
+	Sampling *string `toml:"sampling"`
+}
+
 // raw is the file as decoded; pointers tell given from left out.
 type raw struct {
 	Title string `toml:"title"`
-	Run   struct {
-		Trials   *int64  `toml:"trials"`
-		Seed     *int64  `toml:"seed"`
-		Sampling *string `toml:"sampling"`
-	} `toml:"run"`
+	Run   rawRun `toml:"run"`
 	Model struct {
 		Kind        *string   `toml:"kind"`
 		Fluid       *string   `toml:"fluid"`
@@ -81,32 +84,39 @@ func Parse(path string, src []byte) (*Scenario, error) {
 
 // runSettings reads the [run] table.
 func (c *checker) runSettings(run *rockheat.Run, r *raw) {
-	run.Trials = rockheat.DefaultTrials
-	if r.Run.Trials != nil {
-		if t := *r.Run.Trials; t <= 0 {
+	run.Trials, run.Seed, run.Sampling = c.runTable(r.Run)
+}
+
+// runTable reads the trials, seed and sampling of a [run] table, with
+// their defaults.
+func (c *checker) runTable(r rawRun) (trials int, seed uint64, method sampler.Method) {
+	trials = rockheat.DefaultTrials
+	if r.Trials != nil {
+		if t := *r.Trials; t <= 0 {
 			c.add("run.trials", "= %d must be a positive number of trials (the default is %d)", t, rockheat.DefaultTrials)
 		} else {
-			run.Trials = int(min(t, rockheat.MaxTrials+1)) // above the limit: reported by Validate
+			trials = int(min(t, rockheat.MaxTrials+1)) // above the limit: reported by Validate
 		}
 	}
-	run.Seed = DefaultSeed
-	if r.Run.Seed != nil {
-		if *r.Run.Seed < 0 {
-			c.add("run.seed", "= %d must be a whole number ≥ 0", *r.Run.Seed)
+	seed = DefaultSeed
+	if r.Seed != nil {
+		if *r.Seed < 0 {
+			c.add("run.seed", "= %d must be a whole number ≥ 0", *r.Seed)
 		} else {
-			run.Seed = uint64(*r.Run.Seed)
+			seed = uint64(*r.Seed)
 		}
 	}
-	run.Sampling = sampler.LatinHypercube
-	if r.Run.Sampling != nil {
-		switch *r.Run.Sampling {
+	method = sampler.LatinHypercube
+	if r.Sampling != nil {
+		switch *r.Sampling {
 		case "lhs":
 		case "random":
-			run.Sampling = sampler.Random
+			method = sampler.Random
 		default:
-			c.add("run.sampling", "= %q is not a sampling method; use \"lhs\" (Latin hypercube, the default) or \"random\"", *r.Run.Sampling)
+			c.add("run.sampling", "= %q is not a sampling method; use \"lhs\" (Latin hypercube, the default) or \"random\"", *r.Sampling)
 		}
 	}
+	return trials, seed, method
 }
 
 // model reads the [model] table and the [[layers]] list.

@@ -12,7 +12,6 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"rockheat"
-	"rockheat/sampler"
 )
 
 //go:embed portfolios/*.toml
@@ -41,9 +40,7 @@ var ChanceFactors = map[string]string{
 type rawPortfolio struct {
 	Title string `toml:"title"`
 	Run   struct {
-		Trials    *int64   `toml:"trials"`
-		Seed      *int64   `toml:"seed"`
-		Sampling  *string  `toml:"sampling"`
+		rawRun
 		TargetMWe *float64 `toml:"target_mwe"`
 	} `toml:"run"`
 	Prospects []struct {
@@ -71,8 +68,8 @@ type rawLink struct {
 // the name of a bundled example. It returns every problem found, in the
 // portfolio and in its scenarios, as Problems.
 func LoadPortfolio(arg string) (*PortfolioFile, error) {
-	if _, err := os.Stat(arg); err != nil && !strings.HasSuffix(arg, ".toml") && !strings.ContainsRune(arg, '/') {
-		if text, err := portfoliosFS.ReadFile("portfolios/" + arg + ".toml"); err == nil {
+	if bundledName(arg) {
+		if text, err := PortfolioText(arg); err == nil {
 			return ParsePortfolio("portfolio "+arg, "", text)
 		}
 	}
@@ -181,26 +178,7 @@ var portfolioSetting = map[string]string{"trials": "run.trials", "target_mwe": "
 
 // portfolioRun reads the portfolio's [run] table.
 func (c *checker) portfolioRun(p *rockheat.Portfolio, r *rawPortfolio) {
-	p.Trials = rockheat.DefaultTrials
-	if r.Run.Trials != nil {
-		if *r.Run.Trials <= 0 {
-			c.add("run.trials", "= %d must be a positive number of trials", *r.Run.Trials)
-		} else {
-			p.Trials = int(min(*r.Run.Trials, rockheat.MaxTrials+1))
-		}
-	}
-	p.Seed = DefaultSeed
-	if r.Run.Seed != nil {
-		if *r.Run.Seed < 0 {
-			c.add("run.seed", "= %d must be a whole number ≥ 0", *r.Run.Seed)
-		} else {
-			p.Seed = uint64(*r.Run.Seed)
-		}
-	}
-	p.Sampling = sampler.LatinHypercube
-	if r.Run.Sampling != nil {
-		p.Sampling = choice(c, "run.sampling", r.Run.Sampling, []sampler.Method{sampler.LatinHypercube, sampler.Random}, sampler.LatinHypercube)
-	}
+	p.Trials, p.Seed, p.Sampling = c.runTable(r.Run.rawRun)
 	if r.Run.TargetMWe != nil {
 		p.TargetMWe = *r.Run.TargetMWe
 	}

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"rockheat/sampler"
 )
 
 func TestBundledPortfolio(t *testing.T) {
@@ -69,6 +71,8 @@ chance_of_success = 0.4
 		{"chance above 1", strings.Replace(good, "0.4", "1.4", 1), "prospects[2]: chance of success = 1.4 must be a probability"},
 		{"unknown prospect", good + "[[correlations]]\nprospects = [\"a\", \"z\"]\nrank = 0.5\n", `correlations[1]: "z" is not a prospect`},
 		{"typo key", good + "[run]\ntrails = 5\n", `run.trails: unknown key (did you mean "run.trials"?)`},
+		{"bad sampling", good + "[run]\nsampling = \"sobol\"\n", `run.sampling: = "sobol" is not a sampling method; use "lhs"`},
+		{"negative seed", good + "[run]\nseed = -3\n", "run.seed: = -3 must be a whole number ≥ 0"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -81,5 +85,14 @@ chance_of_success = 0.4
 	}
 	if _, err := ParsePortfolio(filepath.Join(dir, "p.toml"), dir, []byte(good)); err != nil {
 		t.Errorf("good portfolio: %v", err)
+	}
+	// The [run] table: what scenario files take, and a capacity target.
+	run := good + "[run]\ntrials = 1234\nseed = 9\nsampling = \"random\"\ntarget_mwe = 20\n"
+	pf, err := ParsePortfolio(filepath.Join(dir, "p.toml"), dir, []byte(run))
+	if err != nil {
+		t.Fatalf("portfolio with a [run] table: %v", err)
+	}
+	if p := pf.Portfolio; p.Trials != 1234 || p.Seed != 9 || p.Sampling != sampler.Random || p.TargetMWe != 20 {
+		t.Errorf("[run] read as trials %d, seed %d, sampling %v, target %g MWe; want 1234, 9, random, 20", p.Trials, p.Seed, p.Sampling, p.TargetMWe)
 	}
 }
