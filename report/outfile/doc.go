@@ -5,7 +5,8 @@
 // A Set is built from the run's inputs; each output is added to it (Add
 // for a file or standard output, AddFolder for a folder of charts), and
 // every path is checked at once: an output may not be an input, two
-// outputs may not share a file, a read-only file (no write bit in its
+// outputs may not share a file (except the null device, os.DevNull,
+// which keeps nothing), a read-only file (no write bit in its
 // mode, whoever runs, root included) is refused, a folder is not a file,
 // and the folder a new file goes into must exist and be writable. Paths
 // are compared by where they lead (symbolic links followed) and, for

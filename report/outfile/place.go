@@ -39,6 +39,16 @@ func (p place) direct() bool {
 	return p.info != nil && p.info.Mode()&(fs.ModeCharDevice|fs.ModeNamedPipe) != 0
 }
 
+// discards reports whether p is the null device (os.DevNull), which any
+// number of outputs may share, since it keeps nothing.
+func (p place) discards() bool {
+	if p.info == nil || p.info.Mode()&fs.ModeCharDevice == 0 {
+		return false
+	}
+	null, err := os.Stat(os.DevNull)
+	return err == nil && os.SameFile(p.info, null)
+}
+
 // resolve finds where name leads: its folder with every symbolic link
 // resolved, then, while the file itself is a symbolic link, the file the
 // link names (which need not exist yet). A link to a device or a pipe is
