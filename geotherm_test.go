@@ -204,3 +204,44 @@ func TestGeothermPeakAboveRock(t *testing.T) {
 		}
 	}
 }
+
+// TestIF97PressureAtReservoirMiddle: with IF97 fluid and a geotherm, and
+// neither a pressure nor a depth, the fluid pressure is hydrostatic at the
+// reservoir's middle, top + thickness/2, trial by trial: each trial of a
+// run with a sampled thickness equals a run of that trial's thickness
+// with depth_m given as its middle.
+func TestIF97PressureAtReservoirMiddle(t *testing.T) {
+	t.Parallel()
+	if97 := func(thickness, depth string) string {
+		src := reservoirWith("surface_temp_c = 12\ntop_depth_m = 2000\ngradient_c_per_km = 35" + depth)
+		src = strings.Replace(src, "thickness_m = 1000", "thickness_m = "+thickness, 1)
+		src = strings.Replace(src, "fluid_density_kg_m3 = 900\nfluid_heat_capacity_j_kgk = 4300\n", "", 1)
+		return strings.Replace(src, "[inputs]", "[model]\nfluid = \"if97\"\n[inputs]", 1)
+	}
+	run, err := rockheat.Estimate(&mustParse(t, if97(`{ dist = "uniform", min = 200, max = 1800 }`, "")).Run,
+		rockheat.Options{Trials: 50, KeepSamples: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := func(name string) []float64 {
+		for j, n := range run.Samples.Names {
+			if n == name {
+				return run.Samples.Columns[j]
+			}
+		}
+		t.Fatalf("no sample column %s", name)
+		return nil
+	}
+	h, q := col("thickness_m"), col("heat_in_place")
+	for _, i := range []int{0, 17, 49} {
+		th := strconv.FormatFloat(h[i], 'g', -1, 64)
+		mid := strconv.FormatFloat(2000+h[i]/2, 'g', -1, 64)
+		one, err := rockheat.Estimate(&mustParse(t, if97(th, "\ndepth_m = "+mid)).Run, rockheat.Options{Trials: 1})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if want := one.Outputs[0].Summary.Mean; math.Abs(q[i]/want-1) > 1e-12 {
+			t.Errorf("trial %d (thickness %s m): heat in place %.15g EJ, %.15g EJ with depth_m = %s", i, th, q[i], want, mid)
+		}
+	}
+}

@@ -39,7 +39,8 @@ type Reservoir struct {
 	FluidHeatCapacity Quantity // J/(kg·K), > 0; with FluidFixed
 	// ReservoirPressure (Pa (MPa), > 0) or Depth (m, > 0, for a
 	// hydrostatic pressure, heatmodel.Hydrostatic): one of them with
-	// FluidIF97.
+	// FluidIF97; with a geotherm, leave both out for the hydrostatic
+	// pressure at the reservoir's middle, TopDepth + Thickness/2.
 	ReservoirPressure     Quantity
 	Depth                 Quantity
 	RecoveryFactor        Quantity // fraction, (0, 1]
@@ -154,10 +155,28 @@ func (m *Reservoir) check(p *problems, c *checked) {
 		switch hasP, hasZ := m.ReservoirPressure.Given(), m.Depth.Given(); {
 		case hasP && hasZ:
 			p.input(zf.label(), "give either %s or %s (for a hydrostatic pressure), not both", pf.label(), zf.label())
+		case !hasP && !hasZ && m.TopDepth.Given():
+			m.checkMidDepth(p, c, zf)
 		case !hasP && !hasZ:
 			p.add(&InputError{Input: pf.label(), Missing: true,
-				Msg: "fluid \"if97\" needs the fluid pressure: give " + pf.label() + ", or " + zf.label() + " for a hydrostatic pressure"})
+				Msg: "fluid \"if97\" needs the fluid pressure: give " + pf.label() + ", or " + zf.label() + " for a hydrostatic pressure (or a geotherm, whose reservoir middle gives the depth)"})
 		}
+	}
+}
+
+// checkMidDepth checks the depth of a hydrostatic pressure taken at the
+// reservoir's middle, TopDepth + Thickness/2 (a geotherm, no pressure or
+// depth given), against the valid range of depth zf.
+func (m *Reservoir) checkMidDepth(p *problems, c *checked, zf Field) {
+	_, topHi, ok1 := c.span(&m.TopDepth)
+	_, hHi, ok2 := c.span(&m.Thickness)
+	if !ok1 || !ok2 {
+		return
+	}
+	tf := fieldOf(c.fields, &m.TopDepth)
+	valid := zf.Ranges.Valid
+	if z := tf.unit().ToSI(topHi) + hHi/2; !valid.Contains(z) {
+		p.input(tf.label(), "with no %s the fluid pressure is hydrostatic at the reservoir's middle, which reaches %.5g m; %s; keep the reservoir shallower, or give %s", zf.label(), z, valid.Why, fieldOf(c.fields, &m.ReservoirPressure).label())
 	}
 }
 
@@ -263,6 +282,7 @@ func (m *Reservoir) depthRange() Ranges {
 func (m *Reservoir) newEvaluator() evaluator {
 	e := &reservoirEval{fluid: m.Fluid, conversion: m.Conversion, hasPressure: m.ReservoirPressure.Given(),
 		geotherm: m.fromGeotherm()}
+	e.midDepth = e.geotherm && !e.hasPressure && !m.Depth.Given()
 	if e.geotherm {
 		e.freeze = m.Geotherm.prepare(&e.geo)
 	}
@@ -277,6 +297,8 @@ type reservoirEval struct {
 	hasPressure                  bool
 	r                            heatmodel.Reservoir
 	geotherm                     bool // the temperature is the mean of geo over the reservoir
+	midDepth                     bool // a hydrostatic pressure at top + thickness/2, into mid
+	mid                          []float64
 	freeze                       bool // build the one geotherm of fixed parameters on the first batch
 	geo                          heatmodel.GeothermColumns
 	surface, top                 heatmodel.Column
@@ -298,7 +320,11 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	if e.fluid == heatmodel.FluidIF97 {
 		p := e.pressure
 		if !e.hasPressure {
-			p = e.fs.HydrostaticColumn(n, e.depth)
+			z := e.depth
+			if e.midDepth {
+				z = e.midDepths(n, r.Thickness)
+			}
+			p = e.fs.HydrostaticColumn(n, z)
 		}
 		var err error
 		if r.FluidDensity, r.FluidHeatCapacity, err = e.fs.LiquidProperties(n, p, r.ReservoirTemp); err != nil {
@@ -315,6 +341,18 @@ func (e *reservoirEval) evaluate(n int, out [][]float64) (int, error) {
 	return r.Evaluate(n, heatmodel.ReservoirOutputs{
 		HeatInPlace: out[0], RecoverableHeat: out[1], ThermalPower: out[2], ElectricPower: out[3], PowerDensity: out[4],
 	}), nil
+}
+
+// midDepths returns the depth, m, of each trial's reservoir middle,
+// top + thickness/2.
+func (e *reservoirEval) midDepths(n int, thickness heatmodel.Column) heatmodel.Column {
+	if len(e.mid) < n {
+		e.mid = make([]float64, n)
+	}
+	for i := range e.mid[:n] {
+		e.mid[i] = e.top.At(i) + thickness.At(i)/2
+	}
+	return heatmodel.Vary(e.mid[:n])
 }
 
 // meanTemperatures returns, written into t, each trial's reservoir

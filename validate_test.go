@@ -95,6 +95,10 @@ func TestValidateProblems(t *testing.T) {
 		{"IF97 depth beyond 100 MPa", func(_ *Run, m *Reservoir) {
 			m.Fluid, m.Depth = heatmodel.FluidIF97, Fixed(20000, Metre)
 		}, "depth_m", "at 10186 m a cold water column reaches 100 MPa"},
+		{"IF97 reservoir middle beyond 100 MPa", func(_ *Run, m *Reservoir) {
+			m.Fluid, m.ReservoirTemp = heatmodel.FluidIF97, Quantity{}
+			m.SurfaceTemp, m.TopDepth, m.Gradient = Fixed(10, Celsius), Fixed(9800, Metre), Fixed(10, CelsiusPerKm)
+		}, "top_depth_m", "hydrostatic at the reservoir's middle, which reaches 10300 m; at 10186 m a cold water column reaches 100 MPa"},
 		{"no trial holds heat", func(_ *Run, m *Reservoir) {
 			m.ReservoirTemp, m.ReferenceTemp = Fixed(30, Celsius), Fixed(40, Celsius)
 		}, "reservoir_temp_c", "no trial holds heat"},

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -156,5 +157,35 @@ func TestCSV(t *testing.T) {
 	}
 	if len(rows) != 1+len(r.Outputs) || rows[0][0] != "output" || rows[1][0] != "heat_in_place" || rows[1][1] != "J" {
 		t.Errorf("rows = %v", rows)
+	}
+}
+
+// TestMethodNamesThePressure: an IF97 reservoir run says where its fluid
+// pressure comes from, the reservoir's middle when it is left to the
+// geotherm, and nothing of a middle when a depth is given.
+func TestMethodNamesThePressure(t *testing.T) {
+	t.Parallel()
+	const middle = "hydrostatic at each trial's reservoir middle"
+	ex, err := scenarios.LookupExample("depth-gradient")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := strings.Replace(string(ex.Text), "[model]", "[model]\nfluid = \"if97\"", 1)
+	src = regexp.MustCompile(`(?m)^fluid_(density|heat_capacity)_.*\n`).ReplaceAllString(src, "")
+	for _, c := range []struct {
+		extra string
+		want  bool
+	}{{"", true}, {"\ndepth_m = 3000", false}} {
+		s, err := scenarios.Parse("depth-gradient, if97", []byte(strings.Replace(src, "[inputs]", "[inputs]"+c.extra, 1)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		r, err := rockheat.Estimate(&s.Run, rockheat.Options{Trials: 500})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := strings.Contains(methodText(r), middle); got != c.want {
+			t.Errorf("depth %q: method text %q; mentions the middle %v, want %v", c.extra, methodText(r), got, c.want)
+		}
 	}
 }

@@ -161,11 +161,24 @@ func modelLine(r *rockheat.Result) string {
 	return s
 }
 
+// hasInput reports whether r has an input of the key.
+func hasInput(r *rockheat.Result, key string) bool {
+	for _, in := range r.Inputs {
+		if in.Key == key {
+			return true
+		}
+	}
+	return false
+}
+
 func methodText(r *rockheat.Result) string {
 	var fluid string
 	if r.Fluid == heatmodel.FluidIF97 {
 		fluid = " Fluid density and heat capacity: IAPWS-IF97 region 1 liquid at the sampled temperature and pressure" +
 			" (saturated liquid where the pressure is below saturation)."
+		if r.Kind == heatmodel.KindReservoir && !hasInput(r, "reservoir_pressure_mpa") && !hasInput(r, "depth_m") {
+			fluid += " The pressure is hydrostatic at each trial's reservoir middle, top_depth_m + thickness_m/2."
+		}
 	}
 	switch r.Kind {
 	case heatmodel.KindReservoir:
