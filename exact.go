@@ -16,12 +16,14 @@ type selection struct {
 // then the others on the workers. Batch 0 is the sensitivity sample, held
 // in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
 // batch): the pilot of every output's selector, and its first values.
-// Should a selector's brackets miss (a chance below 1e-11), the run is
-// made again keeping every output.
+// While batch 0 runs, a second worker draws and evaluates batch 1, which
+// it adds once the selectors exist. Should a selector's brackets miss (a
+// chance below 1e-11), the run is made again keeping every output.
 func (r *run) selectExact() error {
 	r.startSketches()
 	r.planned = r.s.trials
-	if err := r.batches(0, 1); err != nil {
+	ahead, err := r.pilot()
+	if err != nil {
 		return err
 	}
 	_, n := r.plan.BatchRange(0)
@@ -38,7 +40,42 @@ func (r *run) selectExact() error {
 		p.AddSlice(r.sensOut[j][:n])
 	}
 	r.selection = sel
-	return r.batches(1, r.plan.Batches())
+	from := 1
+	if ahead != nil {
+		r.add(ahead.wk, ahead.n, ahead.zero)
+		from = 2
+	}
+	return r.batches(from, r.plan.Batches())
+}
+
+// aheadBatch is batch 1 of a selecting run, drawn and evaluated while the
+// pilot ran, and not yet added.
+type aheadBatch struct {
+	wk      *worker
+	n, zero int
+}
+
+// pilot runs batch 0 and adds it to the sketches; with a second worker and
+// a second batch, it draws and evaluates batch 1 meanwhile, and returns it
+// to be added once the selectors exist. It returns the error of batch 0,
+// else that of batch 1.
+func (r *run) pilot() (*aheadBatch, error) {
+	if r.s.workers < 2 || r.plan.Batches() < 2 {
+		return nil, r.batches(0, 1)
+	}
+	ahead := &aheadBatch{wk: r.newWorker(1)}
+	var aheadErr error
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		ahead.n, ahead.zero, aheadErr = ahead.wk.batch(1, nil)
+	}()
+	err := r.batches(0, 1)
+	<-done
+	if err == nil {
+		err = aheadErr
+	}
+	return ahead, err
 }
 
 // add adds a worker's batch of n trials, z without heat, to the run's

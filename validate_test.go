@@ -216,9 +216,12 @@ func TestUnitsConvert(t *testing.T) {
 }
 
 // overflowModel is a model whose one output is its input x, except that
-// it overflows to +Inf for x above 0.999: a stand-in for physics that
-// leaves the floating-point range.
-type overflowModel struct{ X Quantity }
+// it overflows to +Inf for x above Limit (0.999 when zero): a stand-in for
+// physics that leaves the floating-point range.
+type overflowModel struct {
+	X     Quantity
+	Limit float64
+}
 
 func (*overflowModel) Kind() heatmodel.Kind { return heatmodel.KindReservoir }
 func (*overflowModel) Settings() (heatmodel.FluidSource, heatmodel.Conversion) {
@@ -233,7 +236,7 @@ func (*overflowModel) outputs() []OutputSpec {
 }
 func (*overflowModel) check(*problems, *checked) {}
 func (m *overflowModel) newEvaluator() evaluator {
-	e := &overflowEval{}
+	e := &overflowEval{limit: m.Limit}
 	e.dst = dsts(m.fields(e))
 	return e
 }
@@ -260,28 +263,39 @@ func (e *overflowEval) evaluate(n int, out [][]float64) (int, error) {
 
 // TestNonFiniteOutputFailsTheRun: a trial whose output is not finite fails
 // the run, naming the trial and its inputs, and the same trial whatever the
-// number of workers (the lowest one).
+// number of workers (the lowest one): in the first batch, which a
+// selecting run runs first, and in the second, which it draws meanwhile.
 func TestNonFiniteOutputFailsTheRun(t *testing.T) {
 	t.Parallel()
 	u, err := sampler.NewUniform(0.5, 1)
 	if err != nil {
 		t.Fatal(err)
 	}
-	var msgs []string
-	for _, w := range []int{1, 2, 5} {
-		run := &Run{Title: "overflow", Trials: 400000, Seed: 3, Sampling: sampler.Random, Model: &overflowModel{X: Quantity{Dist: u}}}
-		_, err := Estimate(run, Options{Workers: w})
-		var te *TrialError
-		if !errors.As(err, &te) {
-			t.Fatalf("%d workers: err = %v, want a TrialError", w, err)
+	for _, c := range []struct {
+		limit       float64
+		batch       int    // of the first failing trial
+		inputPrefix string // of its input
+	}{{0.999, 0, "x = 0.999"}, {0.99998, 1, "x = 0.99998"}} {
+		var msgs []string
+		for _, w := range []int{1, 2, 5} {
+			run := &Run{Title: "overflow", Trials: 400000, Seed: 3, Sampling: sampler.Random,
+				Model: &overflowModel{X: Quantity{Dist: u}, Limit: c.limit}}
+			_, err := Estimate(run, Options{Workers: w})
+			var te *TrialError
+			if !errors.As(err, &te) {
+				t.Fatalf("limit %g, %d workers: err = %v, want a TrialError", c.limit, w, err)
+			}
+			if te.Output != "heat_in_place" || !strings.HasPrefix(te.Inputs[0], c.inputPrefix) {
+				t.Errorf("limit %g, %d workers: %v", c.limit, w, te)
+			}
+			if b := (te.Trial - 1) / sampler.BatchSize; b != c.batch {
+				t.Fatalf("limit %g: trial %d is in batch %d, not %d; choose another limit", c.limit, te.Trial, b, c.batch)
+			}
+			msgs = append(msgs, te.Error())
 		}
-		if te.Output != "heat_in_place" || !strings.HasPrefix(te.Inputs[0], "x = 0.999") {
-			t.Errorf("%d workers: %v", w, te)
+		if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
+			t.Errorf("limit %g: the error depends on the workers:\n%s", c.limit, strings.Join(msgs, "\n"))
 		}
-		msgs = append(msgs, te.Error())
-	}
-	if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
-		t.Errorf("the error depends on the workers:\n%s", strings.Join(msgs, "\n"))
 	}
 }
 
