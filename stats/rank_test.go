@@ -272,6 +272,37 @@ func TestDoubledRanks(t *testing.T) {
 	}
 }
 
+// TestDoubledRanksNearTies: values that agree in all but their last bits
+// (which DoubledRanks sorts apart after its one-word sort), exact ties in
+// large groups, and both zeros, in random order, against Ranks.
+func TestDoubledRanksNearTies(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(9, 10))
+	var s RankScratch
+	for _, n := range []int{2, 600, 70000} {
+		x := make([]float64, n)
+		for i := range x {
+			switch rng.IntN(4) {
+			case 0:
+				x[i] = 1 + float64(rng.IntN(40))*0x1p-52 // near ties, and ties
+			case 1:
+				x[i] = -3 - float64(rng.IntN(40))*0x1p-51
+			case 2:
+				x[i] = math.Copysign(0, float64(rng.IntN(2))-0.5)
+			default:
+				x[i] = rng.NormFloat64()
+			}
+		}
+		d := make([]int32, n)
+		DoubledRanks(x, d, &s)
+		for i, r := range Ranks(x) {
+			if float64(d[i]) != 2*r {
+				t.Fatalf("n = %d: doubled rank %d of %v, rank %v", n, d[i], x[i], r)
+			}
+		}
+	}
+}
+
 // TestCorrelateDoubledRanksPaths checks both accumulations of
 // CorrelateDoubledRanks, in int64 below 2^20 values and in 128 bits from
 // there, against gonum's stat.Correlation (Pearson) of the same ranks, to
