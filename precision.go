@@ -58,10 +58,17 @@ func (r *run) settled() bool {
 func mergeSketches(per [][]*stats.Sketch) []*stats.Sketch {
 	total := make([]*stats.Sketch, len(per[0]))
 	for j := range total {
-		total[j] = stats.NewSketch(stats.DefaultRelErr)
-		for w := range per {
-			total[j].Merge(per[w][j])
-		}
+		total[j] = mergeSketch(per, j)
+	}
+	return total
+}
+
+// mergeSketch returns the sketches of output j of every worker, per[w][j],
+// merged into a new one.
+func mergeSketch(per [][]*stats.Sketch, j int) *stats.Sketch {
+	total := stats.NewSketch(stats.DefaultRelErr)
+	for w := range per {
+		total.Merge(per[w][j])
 	}
 	return total
 }
