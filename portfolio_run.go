@@ -97,9 +97,12 @@ type portfolioRun struct {
 	samples      *Samples
 }
 
-// portfolioSketches are one worker's sketches of a portfolio's figures.
+// portfolioSketches are one worker's sketches of a portfolio's figures,
+// and the exact sums of each prospect's net risked figures, of which only
+// the mean is reported.
 type portfolioSketches struct {
-	unrisked, risked [][]*stats.Sketch // [prospect][output], gross and net risked
+	unrisked         [][]*stats.Sketch // [prospect][output], gross
+	risked           [][]*stats.Mean   // [prospect][output], net risked
 	total, riskTotal []*stats.Sketch   // [output]
 }
 
@@ -216,7 +219,11 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 		}
 		pw.given = append(pw.given, g)
 		pw.sk.unrisked = append(pw.sk.unrisked, newSketches(len(PortfolioOutputs)))
-		pw.sk.risked = append(pw.sk.risked, newSketches(len(PortfolioOutputs)))
+		means := make([]*stats.Mean, len(PortfolioOutputs))
+		for o := range means {
+			means[o] = stats.NewMean()
+		}
+		pw.sk.risked = append(pw.sk.risked, means)
 	}
 	return pw
 }

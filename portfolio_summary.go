@@ -37,7 +37,11 @@ func (pr *portfolioRun) result() *PortfolioResult {
 			out := output(o, merge(func(s *portfolioSketches) *stats.Sketch { return s.unrisked[i][o] }))
 			out.Spec = pr.runs[i].specs[pr.outIdx[i][o]]
 			r.Unrisked = append(r.Unrisked, out)
-			r.RiskedMean = append(r.RiskedMean, merge(func(s *portfolioSketches) *stats.Sketch { return s.risked[i][o] }).Summary(pr.stat).Mean)
+			risked := stats.NewMean()
+			for _, part := range pr.parts {
+				risked.Merge(part.risked[i][o])
+			}
+			r.RiskedMean = append(r.RiskedMean, risked.Value())
 			res.SumP90[o] += r.Share * out.Summary.P90
 			res.SumP10[o] += r.Share * out.Summary.P10
 		}

@@ -198,3 +198,41 @@ func TestMomentsAccumulatorBound(t *testing.T) {
 		}
 	}
 }
+
+// TestMeanMatchesSketch: a Mean gives the bits of the mean of a Sketch
+// (and of Summarize) of the same values, zeros, infinities and NaNs
+// included, whatever the split into merged parts.
+func TestMeanMatchesSketch(t *testing.T) {
+	t.Parallel()
+	x := lognormal(50000, 3, 2, 5)
+	for i := range x {
+		switch i % 5 {
+		case 0:
+			x[i] = 0
+		case 1:
+			x[i] = -x[i]
+		}
+	}
+	x[17] = math.NaN()
+	sk := NewSketch(DefaultRelErr)
+	sk.AddSlice(x)
+	want := sk.Summary(Options{}).Mean
+	a, b := NewMean(), NewMean()
+	a.AddSlice(x[:12345])
+	b.AddSlice(x[12345:])
+	a.Merge(b)
+	if got := a.Value(); math.Float64bits(got) != math.Float64bits(want) || !(got == got) {
+		t.Errorf("Mean %v, Sketch %v", got, want)
+	}
+	if got := Summarize(x, Options{}).Mean; math.Float64bits(got) != math.Float64bits(want) {
+		t.Errorf("Summarize %v, Sketch %v", got, want)
+	}
+	inf := NewMean()
+	inf.AddSlice([]float64{1, math.Inf(1), 2})
+	if got := inf.Value(); !math.IsInf(got, 1) {
+		t.Errorf("mean with +Inf = %v", got)
+	}
+	if got := NewMean().Value(); got == got {
+		t.Errorf("mean of nothing = %v, want NaN", got)
+	}
+}
