@@ -209,7 +209,8 @@ func TestGeothermPeakAboveRock(t *testing.T) {
 // neither a pressure nor a depth, the fluid pressure is hydrostatic at the
 // reservoir's middle, top + thickness/2, trial by trial: each trial of a
 // run with a sampled thickness equals a run of that trial's thickness
-// with depth_m given as its middle.
+// with depth_m given as its middle (the hydrostatic column of
+// docs/references.md §2).
 func TestIF97PressureAtReservoirMiddle(t *testing.T) {
 	t.Parallel()
 	if97 := func(thickness, depth string) string {
@@ -241,7 +242,7 @@ func TestIF97PressureAtReservoirMiddle(t *testing.T) {
 			t.Fatal(err)
 		}
 		if want := one.Outputs[0].Summary.Mean; math.Abs(q[i]/want-1) > 1e-12 {
-			t.Errorf("trial %d (thickness %s m): heat in place %.15g EJ, %.15g EJ with depth_m = %s", i, th, q[i], want, mid)
+			t.Errorf("trial %d (thickness %s m): heat in place %.15g J, %.15g J with depth_m = %s", i, th, q[i], want, mid)
 		}
 	}
 }

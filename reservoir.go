@@ -173,9 +173,10 @@ func (m *Reservoir) checkMidDepth(p *problems, c *checked, zf Field) {
 	if !ok1 || !ok2 {
 		return
 	}
-	tf := fieldOf(c.fields, &m.TopDepth)
+	tf, hf := fieldOf(c.fields, &m.TopDepth), fieldOf(c.fields, &m.Thickness)
 	valid := zf.Ranges.Valid
-	if z := tf.unit().ToSI(topHi) + hHi/2; !valid.Contains(z) {
+	z := tf.unit().ToSI(topHi) + hf.unit().ToSI(hHi)/2 // m
+	if !valid.Contains(zf.unit().FromSI(z)) {
 		p.input(tf.label(), "with no %s the fluid pressure is hydrostatic at the reservoir's middle, which reaches %.5g m; %s; keep the reservoir shallower, or give %s", zf.label(), z, valid.Why, fieldOf(c.fields, &m.ReservoirPressure).label())
 	}
 }

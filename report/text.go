@@ -20,7 +20,8 @@ func Text(w io.Writer, r *rockheat.Result) error {
 	fmt.Fprintf(&b, "%s\n", strings.Repeat("=", len([]rune(r.Title))))
 	fmt.Fprintf(&b, "Scenario  %s\n", r.Path)
 	fmt.Fprintf(&b, "Model     %s\n", modelLine(r))
-	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed) // beside "Scenario" and "Model"
+	// A labelled line like Scenario and Model, so not trialsText's sentence.
+	fmt.Fprintf(&b, "Trials    %d (%s), seed %d\n\n", r.Trials, samplingName(r.Sampling), r.Seed)
 
 	level := r.Confidence
 	rows := [][]string{{"", "P90 (low)", "P50 (best)", "P10 (high)", "mean", "unit"}}

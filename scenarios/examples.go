@@ -74,8 +74,10 @@ func describe(text []byte, title string) string {
 
 // LookupExample returns the bundled example with the given name.
 func LookupExample(name string) (Example, error) {
-	if ex, ok := readExample(name); ok && !strings.ContainsAny(name, "/.") {
-		return ex, nil
+	if !strings.ContainsAny(name, "/.") {
+		if ex, ok := readExample(name); ok {
+			return ex, nil
+		}
 	}
 	var names []string
 	for _, ex := range Examples() {

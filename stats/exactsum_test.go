@@ -201,7 +201,8 @@ func TestMomentsAccumulatorBound(t *testing.T) {
 
 // TestMeanMatchesSketch: a Mean gives the bits of the mean of a Sketch
 // (and of Summarize) of the same values, zeros, infinities and NaNs
-// included, whatever the split into merged parts.
+// included, whatever the split into merged parts; those means are the
+// exact rational mean correctly rounded (TestMomentsExact, math/big).
 func TestMeanMatchesSketch(t *testing.T) {
 	t.Parallel()
 	x := lognormal(50000, 3, 2, 5)

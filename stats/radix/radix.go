@@ -63,7 +63,7 @@ func Sort(keys, buf []uint64, from int, idx, ibuf []int32) ([]uint64, []int32) {
 	}
 	var count [8][256]int
 	for _, k := range keys {
-		for p := from; p < 8; p++ {
+		for p := range 8 {
 			count[p][byte(k>>(8*p))]++
 		}
 	}
