@@ -1,6 +1,8 @@
 package rockheat
 
 import (
+	"sync"
+
 	"rockheat/stats"
 )
 
@@ -15,7 +17,7 @@ type selection struct {
 // selectExact runs an exact estimate that keeps no trial: batch 0 first,
 // then the others on the workers. Batch 0 is the sensitivity sample, held
 // in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
-// batch): the pilot of every output's selector, and its first values.
+// batch), and its sketches are the pilots of the outputs' selectors.
 // While batch 0 runs, a second worker draws and evaluates batch 1, which
 // it adds once the selectors exist. Should a selector's brackets miss (a
 // chance below 1e-11), the run is made again keeping every output.
@@ -28,23 +30,28 @@ func (r *run) selectExact() error {
 	}
 	_, n := r.plan.BatchRange(0)
 	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
+	// Worker 0's sketches hold batch 0 alone: the pilots, unsorted.
 	for j := range r.specs {
-		sel.sels = append(sel.sels, stats.NewSelector(r.s.trials, r.s.stat, r.sensOut[j][:n]))
+		sel.sels = append(sel.sels, stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j]))
 	}
 	for w := range sel.parts {
 		for _, s := range sel.sels {
 			sel.parts[w] = append(sel.parts[w], s.Part())
 		}
 	}
+	r.selection = sel
+	// Batch 1 goes to worker 1's sketches and parts while batch 0 goes
+	// to worker 0's parts.
+	from := 1
+	var wg sync.WaitGroup
+	if ahead != nil {
+		wg.Go(func() { r.add(ahead.wk, ahead.n, ahead.zero) })
+		from = 2
+	}
 	for j, p := range sel.parts[0] {
 		p.AddSlice(r.sensOut[j][:n])
 	}
-	r.selection = sel
-	from := 1
-	if ahead != nil {
-		r.add(ahead.wk, ahead.n, ahead.zero)
-		from = 2
-	}
+	wg.Wait()
 	return r.batches(from, r.plan.Batches())
 }
 

@@ -2,6 +2,7 @@ package stats
 
 import (
 	"math"
+	"sync"
 
 	"gonum.org/v1/gonum/stat/distuv"
 )
@@ -90,6 +91,42 @@ func QuantileBounds(n int, q, level float64) (lo, hi int, coverage float64) {
 	if n == 1 {
 		return 0, 0, 0
 	}
+	k := boundsKey{n, q, level}
+	bounds.Lock()
+	b, ok := bounds.m[k]
+	bounds.Unlock()
+	if !ok {
+		b.lo, b.hi, b.cov = quantileBounds(n, q, level)
+		bounds.Lock()
+		if len(bounds.m) >= 256 {
+			clear(bounds.m)
+		}
+		bounds.m[k] = b
+		bounds.Unlock()
+	}
+	return b.lo, b.hi, b.cov
+}
+
+// bounds holds QuantileBounds' recent answers: each costs O(√n), and a run
+// asks the same ones for every output, once to bracket its selection and
+// once to build its summary.
+var bounds = struct {
+	sync.Mutex
+	m map[boundsKey]boundsAnswer
+}{m: map[boundsKey]boundsAnswer{}}
+
+type boundsKey struct {
+	n        int
+	q, level float64
+}
+
+type boundsAnswer struct {
+	lo, hi int
+	cov    float64
+}
+
+// quantileBounds is QuantileBounds, computed, for n ≥ 2.
+func quantileBounds(n int, q, level float64) (lo, hi int, coverage float64) {
 	sd := math.Sqrt(float64(n) * q * (1 - q))
 	if sd > normalApproxSD {
 		return normalBounds(n, q, level, sd)

@@ -18,7 +18,7 @@ import (
 // A pass is split into SelectorParts, one per goroutine, each fed its
 // share of the values in any order; the result does not depend on the
 // split. When a needed rank falls outside its bracket (the pilot misled;
-// with brackets 7 pilot standard errors wide, a chance below 1e-11),
+// with brackets at least 7 pilot standard errors wide, a chance below 1e-11),
 // Summary says so and the caller summarises another way (a second pass,
 // SummarizeAt).
 type Selector struct {
@@ -31,34 +31,71 @@ type Selector struct {
 // NewSelector returns a selector for a pass over n values that are not
 // NaN (the pass may hold NaNs besides), whose summary's intervals are at
 // opt's level, bracketing from pilot, a random sample of the values (not
-// changed). It panics if opt is invalid or n < 1
-// or the pilot is empty.
+// changed; its NaNs are left out). It is NewSketchSelector with a sketch
+// of pilot. It panics if opt is invalid or n < 1 or the pilot is empty.
 func NewSelector(n int, opt Options, pilot []float64) *Selector {
+	if len(pilot) == 0 {
+		panic("stats: NewSelector with no pilot")
+	}
+	sk := NewSketch(DefaultRelErr)
+	sk.AddSlice(pilot)
+	return NewSketchSelector(n, opt, sk)
+}
+
+// NewSketchSelector returns a selector for a pass over n values that are
+// not NaN (the pass may hold NaNs besides), whose summary's intervals are
+// at opt's level, bracketing from pilot, a sketch of a random sample of
+// the values. Each bracket runs from the pilot's order statistic 7
+// standard errors (plus 2/m, for a pilot of m values) below the needed
+// rank's probability to the one as far above it, each widened to the
+// edges of the sketch bin that holds it, so no sort of the pilot is
+// needed; a pilot of no values brackets everything. pilot is not changed.
+// It panics if opt is invalid or n < 1.
+func NewSketchSelector(n int, opt Options, pilot *Sketch) *Selector {
 	level := opt.Level()
-	if n < 1 || len(pilot) == 0 {
-		panic("stats: NewSelector with no values or no pilot")
+	if n < 1 {
+		panic("stats: NewSketchSelector with no values")
 	}
 	s := &Selector{n: n, level: level, ranks: summaryRanks(n, level)}
-	keys := make([]uint64, 0, len(pilot))
-	for _, v := range pilot {
-		if v == v {
-			keys = append(keys, radix.Key(v))
-		}
-	}
-	keys, _ = radix.Sort(keys, make([]uint64, len(keys)), 0, nil, nil)
-	m := float64(len(keys))
+	m := int(pilot.n)
+	// The pilot ranks at the bracket ends; −1 for none (an open end).
+	var ends [][2]int
+	var pilotRanks []int
 	for _, r := range s.ranks {
 		if r == 0 || r == n-1 {
 			continue // the extremes are tracked exactly
 		}
-		p := float64(r) / float64(n-1)
-		d := 7*math.Sqrt(p*(1-p)/m) + 2/m
-		lo, hi := radix.Key(math.Inf(-1)), radix.Key(math.Inf(1)) // never a NaN's key
-		if k := int(math.Floor((p - d) * (m - 1))); k >= 0 {
-			lo = keys[k]
+		e := [2]int{-1, -1}
+		if m > 0 {
+			p := float64(r) / float64(n-1)
+			d := 7*math.Sqrt(p*(1-p)/float64(m)) + 2/float64(m)
+			if k := math.Floor((p - d) * float64(m-1)); k >= 0 {
+				e[0] = int(k)
+			}
+			if k := math.Ceil((p + d) * float64(m-1)); k < float64(m) {
+				e[1] = int(k)
+			}
 		}
-		if k := int(math.Ceil((p + d) * (m - 1))); k < len(keys) {
-			hi = keys[k]
+		ends = append(ends, e)
+		pilotRanks = append(pilotRanks, e[0], e[1])
+	}
+	slices.Sort(pilotRanks)
+	pilotRanks = slices.Compact(pilotRanks)
+	if len(pilotRanks) > 0 && pilotRanks[0] < 0 {
+		pilotRanks = pilotRanks[1:]
+	}
+	keyRange := pilot.rankKeyRanges(pilotRanks)
+	at := func(k int) [2]uint64 {
+		i, _ := slices.BinarySearch(pilotRanks, k)
+		return keyRange[i]
+	}
+	for _, e := range ends {
+		lo, hi := radix.Key(math.Inf(-1)), radix.Key(math.Inf(1)) // never a NaN's key
+		if e[0] >= 0 {
+			lo = at(e[0])[0]
+		}
+		if e[1] >= 0 {
+			hi = at(e[1])[1]
 		}
 		s.brackets = append(s.brackets, [2]uint64{lo, hi})
 	}

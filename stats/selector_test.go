@@ -1,10 +1,13 @@
 package stats
 
 import (
+	"cmp"
 	"math"
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"rockheat/stats/radix"
 )
 
 // TestSelectorMatchesSort streams values through a Selector in parts, in
@@ -64,6 +67,69 @@ func TestSelectorMatchesSort(t *testing.T) {
 		p.AddSlice(x)
 		if _, ok := wrong.Summary(sk, []*SelectorPart{p}); ok {
 			t.Errorf("n = %d: a misleading pilot was not detected", n)
+		}
+	}
+}
+
+// TestSketchSelectorBrackets: the brackets a sketch of the pilot gives
+// hold those taken from the pilot's sorted values (the construction the
+// sketch replaces: each end the pilot's order statistic 7 standard errors
+// plus 2/m from the needed rank's probability, overlapping brackets
+// merged), one for one, and each end is at most a bin (relative 2α) and an
+// ulp further out, for positive, mixed-sign and tied pilots.
+func TestSketchSelectorBrackets(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(21, 22))
+	draw := map[string]func() float64{
+		"lognormal":  func() float64 { return math.Exp(rng.NormFloat64()) },
+		"mixed sign": func() float64 { return rng.NormFloat64() - 0.3 },
+		"ties":       func() float64 { return float64(rng.IntN(40)) - 5 },
+	}
+	for name, f := range draw {
+		pilot := make([]float64, 1<<16)
+		for i := range pilot {
+			pilot[i] = f()
+		}
+		const n = 1_000_000
+		got := NewSelector(n, DefaultOptions, pilot).brackets
+		keys := make([]uint64, len(pilot))
+		for i, v := range pilot {
+			keys[i] = radix.Key(v)
+		}
+		slices.Sort(keys)
+		m := float64(len(keys))
+		var want [][2]uint64
+		for _, r := range summaryRanks(n, DefaultOptions.Level()) {
+			if r == 0 || r == n-1 {
+				continue
+			}
+			p := float64(r) / float64(n-1)
+			d := 7*math.Sqrt(p*(1-p)/m) + 2/m
+			want = append(want, [2]uint64{keys[int(math.Floor((p-d)*(m-1)))], keys[int(math.Ceil((p+d)*(m-1)))]})
+		}
+		slices.SortFunc(want, func(a, b [2]uint64) int { return cmp.Compare(a[0], b[0]) })
+		merged := want[:0]
+		for _, b := range want {
+			if k := len(merged); k > 0 && b[0] <= merged[k-1][1] {
+				merged[k-1][1] = max(merged[k-1][1], b[1])
+				continue
+			}
+			merged = append(merged, b)
+		}
+		if len(got) != len(merged) {
+			t.Errorf("%s: %d brackets, want %d: %v", name, len(got), len(merged), got)
+			continue
+		}
+		for i, w := range merged {
+			g := got[i]
+			lo, hi := radix.Float(w[0]), radix.Float(w[1])
+			slack := func(end float64) float64 { return 2.01*DefaultRelErr*math.Abs(end) + 5e-324 }
+			if g[0] > w[0] || g[1] < w[1] {
+				t.Errorf("%s: bracket %d [%v, %v] does not hold the pilot's [%v, %v]", name, i, radix.Float(g[0]), radix.Float(g[1]), lo, hi)
+			}
+			if lo-radix.Float(g[0]) > slack(lo) || radix.Float(g[1])-hi > slack(hi) {
+				t.Errorf("%s: bracket %d [%v, %v] is more than a bin wider than the pilot's [%v, %v]", name, i, radix.Float(g[0]), radix.Float(g[1]), lo, hi)
+			}
 		}
 	}
 }

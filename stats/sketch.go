@@ -6,6 +6,8 @@ import (
 	"math/bits"
 	"slices"
 	"sync"
+
+	"rockheat/stats/radix"
 )
 
 // DefaultRelErr is the relative error bound of rockheat's sketches: bins
@@ -320,6 +322,47 @@ func (s *Sketch) orderStats(ranks []int) []float64 {
 	return out
 }
 
+// rankKeyRanges returns, for each of ranks (ascending, in [0, n)), a
+// closed range of radix keys that holds the value of that rank: the keys
+// of its group, from one ulp below the lower edge of its bin to the upper
+// edge (the ulp and the closed end absorb the rounding of an edge into
+// the subnormal range); both zeros for the zeros; the infinity itself
+// for an infinity.
+func (s *Sketch) rankKeyRanges(ranks []int) [][2]uint64 {
+	out := make([][2]uint64, len(ranks))
+	next, cum := 0, uint64(0)
+	s.groups(func(g group, c uint64) bool {
+		for next < len(ranks) && uint64(ranks[next]) < cum+c {
+			out[next] = s.keyRange(g)
+			next++
+		}
+		cum += c
+		return next < len(ranks)
+	})
+	if next < len(ranks) {
+		panic("stats: rankKeyRanges with a rank beyond the values")
+	}
+	return out
+}
+
+// keyRange returns the closed range of radix keys of the values of group
+// g (see rankKeyRanges).
+func (s *Sketch) keyRange(g group) [2]uint64 {
+	switch g.kind {
+	case 1:
+		return [2]uint64{radix.Key(math.Copysign(0, -1)), radix.Key(0)}
+	case 2:
+		return [2]uint64{radix.Key(math.Inf(-1)), radix.Key(math.Inf(-1))}
+	case 3:
+		return [2]uint64{radix.Key(math.Inf(1)), radix.Key(math.Inf(1))}
+	}
+	lo, hi := s.tab.edges(g.index) // of |x|: lo ≤ |x| < hi
+	if g.neg {
+		return [2]uint64{radix.Key(-hi), radix.Key(-lo) + 1}
+	}
+	return [2]uint64{radix.Key(lo) - 1, radix.Key(hi)}
+}
+
 // Quantiles returns Quantile(q) for each q of qs, in one walk over the
 // bins. It panics if the sketch holds no values or a q is outside [0, 1].
 func (s *Sketch) Quantiles(qs []float64) []float64 {
@@ -573,6 +616,23 @@ func (t *binTable) index(x float64) int {
 		}
 	}
 	return e*t.k + j
+}
+
+// edges returns the ends of bin index i, lo ≤ x < hi for its values
+// (up to rounding of an end below the normal range).
+func (t *binTable) edges(i int) (lo, hi float64) {
+	e := i / t.k
+	j := i - e*t.k
+	if j < 0 {
+		e--
+		j += t.k
+	}
+	mant := func(f uint64) float64 { return math.Float64frombits(1023<<52 | f) } // 1 + f/2^52
+	lo, hi = math.Ldexp(mant(t.frac[j]), e), math.Ldexp(2, e)
+	if j+1 < t.k {
+		hi = math.Ldexp(mant(t.frac[j+1]), e)
+	}
+	return lo, hi
 }
 
 // value returns the representative value of bin index i.

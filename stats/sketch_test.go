@@ -1,11 +1,14 @@
 package stats
 
 import (
+	"cmp"
 	"math"
 	"math/rand/v2"
 	"reflect"
 	"slices"
 	"testing"
+
+	"rockheat/stats/radix"
 )
 
 // errBound is the bound stated for Sketch.Quantile: α·((1−f)|x(lo)| + f|x(lo+1)|).
@@ -91,6 +94,43 @@ func TestSketchOrderStatistics(t *testing.T) {
 	}
 	if s.at(0) != sorted[0] || s.at(len(sorted)-1) != sorted[len(sorted)-1] {
 		t.Errorf("extremes %v, %v; want %v, %v", s.at(0), s.at(len(sorted)-1), sorted[0], sorted[len(sorted)-1])
+	}
+}
+
+// TestSketchRankKeyRanges: the key range the sketch gives for each rank
+// holds the exact order statistic of that rank, for every rank of a sample
+// with both signs, both zeros, infinities, subnormals and magnitudes over
+// hundreds of decades, at a fine and a coarse resolution; and a range is
+// no wider than its bin (a relative 2α/(1−α), an ulp aside) for a normal value.
+func TestSketchRankKeyRanges(t *testing.T) {
+	t.Parallel()
+	x := normal(5000, 0, 1, 6)
+	for i := range x {
+		x[i] = math.Copysign(math.Pow(10, 300*x[i]), x[i]-0.1) // reaches the subnormals
+	}
+	x = append(x, 0, 0, math.Copysign(0, -1), math.Inf(1), math.Inf(-1), 5e-324, -5e-324,
+		math.SmallestNonzeroFloat64*3, math.MaxFloat64, -math.MaxFloat64, math.NaN())
+	sorted := slices.DeleteFunc(slices.Clone(x), math.IsNaN)
+	slices.SortFunc(sorted, func(a, b float64) int { return cmp.Compare(radix.Key(a), radix.Key(b)) })
+	ranks := make([]int, len(sorted))
+	for k := range ranks {
+		ranks[k] = k
+	}
+	for _, alpha := range []float64{DefaultRelErr, 0.01} {
+		s := NewSketch(alpha)
+		s.AddSlice(x)
+		for k, r := range s.rankKeyRanges(ranks) {
+			v := sorted[k]
+			if key := radix.Key(v); key < r[0] || key > r[1] {
+				t.Fatalf("α %g, rank %d: value %v outside its range [%v, %v]", alpha, k, v, radix.Float(r[0]), radix.Float(r[1]))
+			}
+			if a := math.Abs(v); a >= 0x1p-1022 && a <= math.MaxFloat64/2 {
+				lo, hi := math.Abs(radix.Float(r[0])), math.Abs(radix.Float(r[1]))
+				if w, e := math.Abs(hi-lo)/a, s.RelErr(); w > 2*e/(1-e)*1.001 {
+					t.Errorf("α %g, rank %d: range [%v, %v] is %.3g wide, relative to %v", alpha, k, radix.Float(r[0]), radix.Float(r[1]), w, v)
+				}
+			}
+		}
 	}
 }
 
