@@ -204,9 +204,10 @@ func (r *run) outputs() ([]Output, error) {
 	}
 	outs := make([]Output, len(r.specs))
 	if r.sketches != nil {
-		for j, sk := range mergeSketches(r.sketches) {
+		parallel(len(r.specs), r.s.workers, func(j int) {
+			sk := mergeSketch(r.sketches, j)
 			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: sk.Quantiles(curveProbabilities)}
-		}
+		})
 		return outs, nil
 	}
 	parallel(len(r.specs), r.s.workers, func(j int) {

@@ -2,6 +2,7 @@ package rockheat
 
 import (
 	"sync"
+	"sync/atomic"
 
 	"rockheat/stats"
 )
@@ -112,16 +113,19 @@ func (r *run) add(wk *worker, n, z int) {
 // It returns false when a selector missed.
 func (r *run) selectedOutputs() ([]Output, bool) {
 	outs := make([]Output, len(r.specs))
-	for j, sk := range mergeSketches(r.sketches) {
+	var missed atomic.Bool
+	parallel(len(r.specs), r.s.workers, func(j int) {
+		sk := mergeSketch(r.sketches, j)
 		parts := make([]*stats.SelectorPart, len(r.selection.parts))
 		for w := range parts {
 			parts[w] = r.selection.parts[w][j]
 		}
 		sum, ok := r.selection.sels[j].Summary(sk, parts)
 		if !ok {
-			return nil, false
+			missed.Store(true)
+			return
 		}
 		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: sk.Quantiles(curveProbabilities)}
-	}
-	return outs, true
+	})
+	return outs, !missed.Load()
 }

@@ -12,7 +12,7 @@ import (
 // pilot sample of the same values it brackets each needed rank with a
 // range of values wide enough to hold it with overwhelming probability,
 // gathers the values inside the brackets and counts those below them, and
-// after the pass reads each order statistic from its sorted bracket. A
+// after the pass selects each order statistic from its bracket. A
 // bracket holds a few per cent of the values.
 //
 // A pass is split into SelectorParts, one per goroutine, each fed its
@@ -258,35 +258,48 @@ func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 	if n != s.n {
 		panic("stats: Selector.Summary with a sketch of another count")
 	}
-	below := make([]int, len(s.brackets))
-	inside := make([][]float64, len(s.brackets))
+	below, inside := make([]int, len(s.brackets)), make([]int, len(s.brackets))
 	minK, maxK := uint64(math.MaxUint64), uint64(0)
 	for _, p := range parts {
 		for b := range s.brackets {
 			below[b] += p.below[b]
-			inside[b] = append(inside[b], p.inside[b]...)
+			inside[b] += len(p.inside[b])
 		}
 		if p.n > 0 {
 			minK, maxK = min(minK, p.minK), max(maxK, p.maxK)
 		}
 	}
-	for _, vs := range inside {
-		sortKeyed(vs)
-	}
-	stat := map[int]float64{0: radix.Float(minK), n - 1: radix.Float(maxK)}
+	// Each needed rank's offset in its bracket, ascending in each, and
+	// the rank itself.
+	offs, ranks := make([][]int, len(s.brackets)), make([][]int, len(s.brackets))
 	for _, r := range s.ranks {
 		if r == 0 || r == n-1 {
 			continue
 		}
 		found := false
 		for b := range s.brackets {
-			if off := r - below[b]; off >= 0 && off < len(inside[b]) {
-				stat[r], found = inside[b][off], true
+			if off := r - below[b]; off >= 0 && off < inside[b] {
+				offs[b], ranks[b], found = append(offs[b], off), append(ranks[b], r), true
 				break
 			}
 		}
 		if !found {
 			return Summary{}, false
+		}
+	}
+	stat := map[int]float64{0: radix.Float(minK), n - 1: radix.Float(maxK)}
+	for b := range s.brackets {
+		if len(offs[b]) == 0 {
+			continue
+		}
+		keys := make([]uint64, 0, inside[b])
+		for _, p := range parts {
+			for _, v := range p.inside[b] {
+				keys = append(keys, radix.Key(v))
+			}
+		}
+		for i, k := range radix.Select(keys, make([]uint64, len(keys)), offs[b]) {
+			stat[ranks[b][i]] = radix.Float(k)
 		}
 	}
 	at := func(i int) float64 {
