@@ -57,7 +57,7 @@ func Estimate(rn *Run, opt Options) (*Result, error) {
 	r := newRun(c, s)
 	switch {
 	case s.streaming:
-		r.startSketches()
+		r.startSketches(r.s.workers)
 		err = r.stream()
 	case s.keepsOutputs():
 		err = r.keepExact()
@@ -137,9 +137,10 @@ func subMatrix(m *mat.SymDense, keep []int) *mat.SymDense {
 	return sub
 }
 
-// startSketches gives every worker a sketch per output.
-func (r *run) startSketches() {
-	r.sketches = make([][]*stats.Sketch, r.s.workers)
+// startSketches gives each of slots (every worker, and any other
+// goroutine that adds batches) a sketch per output.
+func (r *run) startSketches(slots int) {
+	r.sketches = make([][]*stats.Sketch, slots)
 	for w := range r.sketches {
 		r.sketches[w] = make([]*stats.Sketch, len(r.specs))
 		for j := range r.specs {

@@ -19,18 +19,21 @@ type selection struct {
 // then the others on the workers. Batch 0 is the sensitivity sample, held
 // in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
 // batch), and its sketches are the pilots of the outputs' selectors.
-// While batch 0 runs, a second worker draws and evaluates batch 1, which
-// it adds once the selectors exist. Should a selector's brackets miss (a
+// While batch 0 runs, a second worker draws and evaluates batch 1; once
+// the selectors exist, batches 0 and 1 go into them (and batch 1 into the
+// sketches) beside the workers that run the rest. Should a selector's brackets miss (a
 // chance below 1e-11), the run is made again keeping every output.
 func (r *run) selectExact() error {
-	r.startSketches()
+	// Slot r.s.workers, besides the workers' own, takes batches 0 and 1
+	// into the selectors while the other batches run.
+	r.startSketches(r.s.workers + 1)
 	r.planned = r.s.trials
 	ahead, err := r.pilot()
 	if err != nil {
 		return err
 	}
 	_, n := r.plan.BatchRange(0)
-	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
+	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers+1)}
 	// Worker 0's sketches hold batch 0 alone: the pilots, unsorted.
 	for j := range r.specs {
 		sel.sels = append(sel.sels, stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j]))
@@ -41,19 +44,23 @@ func (r *run) selectExact() error {
 		}
 	}
 	r.selection = sel
-	// Batch 1 goes to worker 1's sketches and parts while batch 0 goes
-	// to worker 0's parts.
-	from := 1
+	early := func() {
+		for j, p := range sel.parts[r.s.workers] {
+			p.AddSlice(r.sensOut[j][:n])
+		}
+		if ahead != nil {
+			r.add(ahead.wk, ahead.n, ahead.zero)
+		}
+	}
+	if ahead == nil { // one worker: nothing runs beside it
+		early()
+		return r.batches(1, r.plan.Batches())
+	}
 	var wg sync.WaitGroup
-	if ahead != nil {
-		wg.Go(func() { r.add(ahead.wk, ahead.n, ahead.zero) })
-		from = 2
-	}
-	for j, p := range sel.parts[0] {
-		p.AddSlice(r.sensOut[j][:n])
-	}
+	wg.Go(early)
+	err = r.batches(2, r.plan.Batches())
 	wg.Wait()
-	return r.batches(from, r.plan.Batches())
+	return err
 }
 
 // aheadBatch is batch 1 of a selecting run, drawn and evaluated while the
@@ -71,7 +78,7 @@ func (r *run) pilot() (*aheadBatch, error) {
 	if r.s.workers < 2 || r.plan.Batches() < 2 {
 		return nil, r.batches(0, 1)
 	}
-	ahead := &aheadBatch{wk: r.newWorker(1)}
+	ahead := &aheadBatch{wk: r.newWorker(r.s.workers)} // in the extra slot
 	var aheadErr error
 	done := make(chan struct{})
 	go func() {
