@@ -12,9 +12,14 @@ import (
 
 // batches draws and evaluates batches [from, to) of the plan on the
 // workers.
-func (r *run) batches(from, to int) error {
-	return forBatches(r.s.workers, from, to, func(w int) func(b int) error {
-		wk := r.newWorker(w)
+func (r *run) batches(from, to int) error { return r.batchesAfter(nil, from, to) }
+
+// batchesAfter is batches with first, if not nil, called by each worker w
+// on its goroutine before it takes a batch; every worker runs it, even
+// one left without a batch.
+func (r *run) batchesAfter(first func(w int), from, to int) error {
+	return forBatches(r.s.workers, from, to, first, func(w int) func(b int) error {
+		wk := r.worker(w)
 		return func(b int) error {
 			n, z, err := wk.batch(b, nil)
 			if err == nil {
@@ -25,12 +30,13 @@ func (r *run) batches(from, to int) error {
 	})
 }
 
-// forBatches runs batches [from, to) on at most workers goroutines, each
-// with the batch function that newWork(w) gives goroutine w; batches are
-// taken in order from a shared counter. It returns the error of the
-// lowest batch that failed, whatever the workers: every batch below it
-// has run.
-func forBatches(workers, from, to int, newWork func(w int) func(b int) error) error {
+// forBatches runs batches [from, to) on at most workers goroutines (all
+// of them when first is not nil), each with the batch function that
+// newWork(w) gives goroutine w, called first by first(w) if first is not
+// nil; batches are taken in order from a shared counter. It returns the
+// error of the lowest batch that failed, whatever the workers: every
+// batch below it has run.
+func forBatches(workers, from, to int, first func(w int), newWork func(w int) func(b int) error) error {
 	var (
 		next     atomic.Int64
 		wg       sync.WaitGroup
@@ -39,11 +45,18 @@ func forBatches(workers, from, to int, newWork func(w int) func(b int) error) er
 		firstErr error
 	)
 	next.Store(int64(from))
-	for w := 0; w < min(workers, to-from); w++ {
+	goroutines := min(workers, to-from)
+	if first != nil {
+		goroutines = workers
+	}
+	for w := range goroutines {
 		work := newWork(w)
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			if first != nil {
+				first(w)
+			}
 			for {
 				b := int(next.Add(1) - 1)
 				if b >= to {
@@ -77,6 +90,20 @@ type worker struct {
 	in, out           [][]float64 // the current batch's draws and outputs
 	localIn, localOut [][]float64 // where they go when nothing keeps them
 	fill              [][]float64 // the columns of in the plan draws
+}
+
+// worker returns the run's worker of slot w, made on first use and kept
+// for the run's later batches (a later round, or the batches after a
+// pilot), so that its buffers are made once. It is not safe for
+// concurrent use, and a slot's worker serves one goroutine at a time.
+func (r *run) worker(w int) *worker {
+	if w >= len(r.pool) {
+		r.pool = append(r.pool, make([]*worker, w+1-len(r.pool))...)
+	}
+	if r.pool[w] == nil {
+		r.pool[w] = r.newWorker(w)
+	}
+	return r.pool[w]
 }
 
 func (r *run) newWorker(w int) *worker {

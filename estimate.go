@@ -40,6 +40,7 @@ type run struct {
 	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting
 	selection *selection        // exact order statistics without the trials, or nil
 	converged bool              // a run to a precision reached it
+	pool      []*worker         // the workers, by slot (see worker)
 }
 
 // Estimate runs rn and summarises its outputs. It checks rn first and
@@ -57,7 +58,7 @@ func Estimate(rn *Run, opt Options) (*Result, error) {
 	r := newRun(c, s)
 	switch {
 	case s.streaming:
-		r.startSketches(r.s.workers)
+		r.startSketches()
 		err = r.stream()
 	case s.keepsOutputs():
 		err = r.keepExact()
@@ -137,10 +138,9 @@ func subMatrix(m *mat.SymDense, keep []int) *mat.SymDense {
 	return sub
 }
 
-// startSketches gives each of slots (every worker, and any other
-// goroutine that adds batches) a sketch per output.
-func (r *run) startSketches(slots int) {
-	r.sketches = make([][]*stats.Sketch, slots)
+// startSketches gives every worker a sketch per output.
+func (r *run) startSketches() {
+	r.sketches = make([][]*stats.Sketch, r.s.workers)
 	for w := range r.sketches {
 		r.sketches[w] = make([]*stats.Sketch, len(r.specs))
 		for j := range r.specs {

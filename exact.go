@@ -1,7 +1,6 @@
 package rockheat
 
 import (
-	"sync"
 	"sync/atomic"
 
 	"rockheat/stats"
@@ -20,20 +19,18 @@ type selection struct {
 // in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
 // batch), and its sketches are the pilots of the outputs' selectors.
 // While batch 0 runs, a second worker draws and evaluates batch 1; once
-// the selectors exist, batches 0 and 1 go into them (and batch 1 into the
-// sketches) beside the workers that run the rest. Should a selector's brackets miss (a
+// the selectors exist, workers 0 and 1 add batches 0 and 1 to them (and
+// batch 1 to the sketches) before they run the rest. Should a selector's brackets miss (a
 // chance below 1e-11), the run is made again keeping every output.
 func (r *run) selectExact() error {
-	// Slot r.s.workers, besides the workers' own, takes batches 0 and 1
-	// into the selectors while the other batches run.
-	r.startSketches(r.s.workers + 1)
+	r.startSketches()
 	r.planned = r.s.trials
 	ahead, err := r.pilot()
 	if err != nil {
 		return err
 	}
 	_, n := r.plan.BatchRange(0)
-	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers+1)}
+	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
 	// Worker 0's sketches hold batch 0 alone: the pilots, unsorted.
 	for j := range r.specs {
 		sel.sels = append(sel.sels, stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j]))
@@ -44,23 +41,23 @@ func (r *run) selectExact() error {
 		}
 	}
 	r.selection = sel
-	early := func() {
-		for j, p := range sel.parts[r.s.workers] {
-			p.AddSlice(r.sensOut[j][:n])
-		}
-		if ahead != nil {
+	// Before its first batch, worker 0 adds batch 0 to its selector parts
+	// and worker 1 adds batch 1, which it evaluated during the pilot.
+	first := func(w int) {
+		switch {
+		case w == 0:
+			for j, p := range sel.parts[0] {
+				p.AddSlice(r.sensOut[j][:n])
+			}
+		case w == 1 && ahead != nil:
 			r.add(ahead.wk, ahead.n, ahead.zero)
 		}
 	}
-	if ahead == nil { // one worker: nothing runs beside it
-		early()
-		return r.batches(1, r.plan.Batches())
+	from := 1
+	if ahead != nil {
+		from = 2
 	}
-	var wg sync.WaitGroup
-	wg.Go(early)
-	err = r.batches(2, r.plan.Batches())
-	wg.Wait()
-	return err
+	return r.batchesAfter(first, from, r.plan.Batches())
 }
 
 // aheadBatch is batch 1 of a selecting run, drawn and evaluated while the
@@ -78,7 +75,7 @@ func (r *run) pilot() (*aheadBatch, error) {
 	if r.s.workers < 2 || r.plan.Batches() < 2 {
 		return nil, r.batches(0, 1)
 	}
-	ahead := &aheadBatch{wk: r.newWorker(r.s.workers)} // in the extra slot
+	ahead := &aheadBatch{wk: r.worker(1)}
 	var aheadErr error
 	done := make(chan struct{})
 	go func() {

@@ -174,7 +174,7 @@ func involved(pairs []ProspectCorrelation, prospects []Prospect, m *mat.SymDense
 func (pr *portfolioRun) runBatches() error {
 	nw := max(1, min(pr.workers, pr.batches))
 	pr.parts = make([]*portfolioSketches, nw)
-	return forBatches(nw, 0, pr.batches, func(w int) func(b int) error {
+	return forBatches(nw, 0, pr.batches, nil, func(w int) func(b int) error {
 		pw := pr.newWorker()
 		pr.parts[w] = pw.sk
 		return pw.batch
