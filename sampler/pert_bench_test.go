@@ -71,3 +71,13 @@ func BenchmarkTriangularQuantile(b *testing.B) {
 }
 
 var sink float64
+
+// BenchmarkNewPERT measures the building of a PERT's quantile tables,
+// which every run with a PERT input pays once per distribution.
+func BenchmarkNewPERT(b *testing.B) {
+	for b.Loop() {
+		if _, err := NewPERT(0.02, 0.06, 0.12); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
