@@ -14,10 +14,9 @@ import (
 // workers.
 func (r *run) batches(from, to int) error { return r.batchesAfter(nil, from, to) }
 
-// batchesAfter is batches with first, if not nil, called by each worker w
-// on its goroutine before it takes a batch; every worker runs it, even
-// one left without a batch.
-func (r *run) batchesAfter(first func(w int), from, to int) error {
+// batchesAfter is batches with first[w] called by worker w on its
+// goroutine before it takes a batch (see forBatches).
+func (r *run) batchesAfter(first []func(), from, to int) error {
 	return forBatches(r.s.workers, from, to, first, func(w int) func(b int) error {
 		wk := r.worker(w)
 		return func(b int) error {
@@ -30,13 +29,14 @@ func (r *run) batchesAfter(first func(w int), from, to int) error {
 	})
 }
 
-// forBatches runs batches [from, to) on at most workers goroutines (all
-// of them when first is not nil), each with the batch function that
-// newWork(w) gives goroutine w, called first by first(w) if first is not
-// nil; batches are taken in order from a shared counter. It returns the
-// error of the lowest batch that failed, whatever the workers: every
-// batch below it has run.
-func forBatches(workers, from, to int, first func(w int), newWork func(w int) func(b int) error) error {
+// forBatches runs batches [from, to) on at most workers goroutines, and
+// on at least len(first) of them, goroutine w calling first[w] (if it
+// has one) and then taking batches, in order, from a shared counter, with
+// the batch function newWork(w) gave it. newWork is called on the
+// caller's goroutine, for w = 0, 1, … in turn, each before goroutine w
+// starts. It returns the error of the lowest batch that failed, whatever
+// the workers: every batch below it has run.
+func forBatches(workers, from, to int, first []func(), newWork func(w int) func(b int) error) error {
 	var (
 		next     atomic.Int64
 		wg       sync.WaitGroup
@@ -45,17 +45,13 @@ func forBatches(workers, from, to int, first func(w int), newWork func(w int) fu
 		firstErr error
 	)
 	next.Store(int64(from))
-	goroutines := min(workers, to-from)
-	if first != nil {
-		goroutines = workers
-	}
-	for w := range goroutines {
+	for w := range max(min(workers, to-from), len(first)) {
 		work := newWork(w)
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			if first != nil {
-				first(w)
+			if w < len(first) {
+				first[w]()
 			}
 			for {
 				b := int(next.Add(1) - 1)
@@ -94,8 +90,11 @@ type worker struct {
 
 // worker returns the run's worker of slot w, made on first use and kept
 // for the run's later batches (a later round, or the batches after a
-// pilot), so that its buffers are made once. It is not safe for
-// concurrent use, and a slot's worker serves one goroutine at a time.
+// pilot), so that its buffers are made once: where its draws and outputs
+// go is chosen then (newWorker), and stays right while the run keeps no
+// fewer trials than it did. It is not safe for concurrent use (forBatches
+// calls it from one goroutine), and a slot's worker serves one goroutine
+// at a time.
 func (r *run) worker(w int) *worker {
 	if w >= len(r.pool) {
 		r.pool = append(r.pool, make([]*worker, w+1-len(r.pool))...)

@@ -6,26 +6,33 @@ import (
 	"testing"
 )
 
-// TestForBatches: every batch runs once; with first, every worker calls it
-// before its batches, also a worker left without a batch; and the error
-// reported is that of the lowest failing batch, whatever the workers.
+// TestForBatches: every batch runs once; each first[w] runs on its
+// worker before that worker's batches, also when there are more firsts
+// than batches; and the error reported is that of the lowest failing
+// batch, whatever the workers.
 func TestForBatches(t *testing.T) {
 	t.Parallel()
-	for _, tc := range []struct{ workers, from, to int }{{1, 0, 5}, {2, 2, 9}, {4, 0, 2}, {8, 3, 4}} {
-		name := fmt.Sprintf("%d workers, batches %d–%d", tc.workers, tc.from, tc.to)
+	for _, tc := range []struct{ workers, firsts, from, to int }{{1, 1, 0, 5}, {2, 2, 2, 9}, {4, 2, 0, 1}, {8, 1, 3, 4}, {3, 0, 0, 7}} {
+		name := fmt.Sprintf("%d workers, %d firsts, batches %d–%d", tc.workers, tc.firsts, tc.from, tc.to)
 		var mu sync.Mutex
 		ran := map[int]int{}
-		firsts := map[int]bool{}
-		err := forBatches(tc.workers, tc.from, tc.to, func(w int) {
-			mu.Lock()
-			firsts[w] = true
-			mu.Unlock()
-		}, func(w int) func(b int) error {
+		done := map[int]bool{} // workers whose first ran
+		var first []func()
+		for w := range tc.firsts {
+			first = append(first, func() {
+				mu.Lock()
+				done[w] = true
+				mu.Unlock()
+			})
+		}
+		started := 0
+		err := forBatches(tc.workers, tc.from, tc.to, first, func(w int) func(b int) error {
+			started++
 			return func(b int) error {
 				mu.Lock()
 				defer mu.Unlock()
-				if !firsts[w] {
-					t.Errorf("%s: worker %d ran batch %d before first", name, w, b)
+				if w < tc.firsts && !done[w] {
+					t.Errorf("%s: worker %d ran batch %d before its first", name, w, b)
 				}
 				ran[b]++
 				return nil
@@ -42,8 +49,11 @@ func TestForBatches(t *testing.T) {
 		if len(ran) != tc.to-tc.from {
 			t.Errorf("%s: batches run %v", name, ran)
 		}
-		if len(firsts) != tc.workers {
-			t.Errorf("%s: first called by %d workers, want all %d", name, len(firsts), tc.workers)
+		if len(done) != tc.firsts {
+			t.Errorf("%s: %d firsts ran, want %d", name, len(done), tc.firsts)
+		}
+		if want := max(min(tc.workers, tc.to-tc.from), tc.firsts); started != want {
+			t.Errorf("%s: %d workers made, want %d", name, started, want)
 		}
 	}
 	for _, workers := range []int{1, 3} {

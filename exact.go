@@ -43,21 +43,16 @@ func (r *run) selectExact() error {
 	r.selection = sel
 	// Before its first batch, worker 0 adds batch 0 to its selector parts
 	// and worker 1 adds batch 1, which it evaluated during the pilot.
-	first := func(w int) {
-		switch {
-		case w == 0:
-			for j, p := range sel.parts[0] {
-				p.AddSlice(r.sensOut[j][:n])
-			}
-		case w == 1 && ahead != nil:
-			r.add(ahead.wk, ahead.n, ahead.zero)
+	first := []func(){func() {
+		for j, p := range sel.parts[0] {
+			p.AddSlice(r.sensOut[j][:n])
 		}
+	}}
+	if ahead == nil {
+		return r.batchesAfter(first, 1, r.plan.Batches())
 	}
-	from := 1
-	if ahead != nil {
-		from = 2
-	}
-	return r.batchesAfter(first, from, r.plan.Batches())
+	first = append(first, func() { r.add(ahead.wk, ahead.n, ahead.zero) })
+	return r.batchesAfter(first, 2, r.plan.Batches())
 }
 
 // aheadBatch is batch 1 of a selecting run, drawn and evaluated while the
@@ -103,12 +98,13 @@ func (r *run) add(wk *worker, n, z int) {
 	}
 	r.saturated.Add(int64(wk.ev.saturated()))
 	r.zero.Add(int64(z))
-	d := r.done.Add(int64(n))
-	if r.s.Progress != nil {
-		r.progMu.Lock()
-		r.s.Progress(int(d), r.planned)
-		r.progMu.Unlock()
+	if r.s.Progress == nil {
+		r.done.Add(int64(n))
+		return
 	}
+	r.progMu.Lock() // counted inside, so that the counts reported rise
+	r.s.Progress(int(r.done.Add(int64(n))), r.planned)
+	r.progMu.Unlock()
 }
 
 // selectedOutputs summarises the outputs of a selectExact run: exact

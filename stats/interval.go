@@ -77,6 +77,8 @@ const normalApproxSD = 2e4
 // If n is too small for any pair to reach level, it returns the widest
 // pair, lo = 0 and hi = n−1, with its (lower) coverage; the caller should
 // compare the coverage with level. For n = 1 it returns 0, 0, 0.
+// It is safe for concurrent use and remembers its last few hundred
+// answers, which a run asks again for every output.
 // It panics if n < 1, q is outside (0, 1) or level outside (0, 1).
 func QuantileBounds(n int, q, level float64) (lo, hi int, coverage float64) {
 	if n < 1 {

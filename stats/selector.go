@@ -1,6 +1,7 @@
 package stats
 
 import (
+	"cmp"
 	"math"
 	"slices"
 
@@ -31,8 +32,9 @@ type Selector struct {
 // NewSelector returns a selector for a pass over n values that are not
 // NaN (the pass may hold NaNs besides), whose summary's intervals are at
 // opt's level, bracketing from pilot, a random sample of the values (not
-// changed; its NaNs are left out). It is NewSketchSelector with a sketch
-// of pilot. It panics if opt is invalid or n < 1 or the pilot is empty.
+// changed; its NaNs are left out, and a pilot of NaNs alone brackets
+// everything). It is NewSketchSelector with a sketch of pilot. It panics
+// if opt is invalid or n < 1 or the pilot is empty.
 func NewSelector(n int, opt Options, pilot []float64) *Selector {
 	if len(pilot) == 0 {
 		panic("stats: NewSelector with no pilot")
@@ -49,41 +51,21 @@ func NewSelector(n int, opt Options, pilot []float64) *Selector {
 // standard errors (plus 2/m, for a pilot of m values) below the needed
 // rank's probability to the one as far above it, each widened to the
 // edges of the sketch bin that holds it, so no sort of the pilot is
-// needed; a pilot of no values brackets everything. pilot is not changed.
-// It panics if opt is invalid or n < 1.
+// needed; a pilot of fewer than two values brackets everything. pilot is
+// not changed. It panics if opt is invalid or n < 1.
 func NewSketchSelector(n int, opt Options, pilot *Sketch) *Selector {
 	level := opt.Level()
 	if n < 1 {
 		panic("stats: NewSketchSelector with no values")
 	}
 	s := &Selector{n: n, level: level, ranks: summaryRanks(n, level)}
-	m := int(pilot.n)
-	// The pilot ranks at the bracket ends; −1 for none (an open end).
-	var ends [][2]int
+	ends := s.pilotEnds(int(pilot.n))
 	var pilotRanks []int
-	for _, r := range s.ranks {
-		if r == 0 || r == n-1 {
-			continue // the extremes are tracked exactly
-		}
-		e := [2]int{-1, -1}
-		if m > 0 {
-			p := float64(r) / float64(n-1)
-			d := 7*math.Sqrt(p*(1-p)/float64(m)) + 2/float64(m)
-			if k := math.Floor((p - d) * float64(m-1)); k >= 0 {
-				e[0] = int(k)
-			}
-			if k := math.Ceil((p + d) * float64(m-1)); k < float64(m) {
-				e[1] = int(k)
-			}
-		}
-		ends = append(ends, e)
+	for _, e := range ends {
 		pilotRanks = append(pilotRanks, e[0], e[1])
 	}
 	slices.Sort(pilotRanks)
-	pilotRanks = slices.Compact(pilotRanks)
-	if len(pilotRanks) > 0 && pilotRanks[0] < 0 {
-		pilotRanks = pilotRanks[1:]
-	}
+	pilotRanks = slices.DeleteFunc(slices.Compact(pilotRanks), func(k int) bool { return k < 0 })
 	keyRange := pilot.rankKeyRanges(pilotRanks)
 	at := func(k int) [2]uint64 {
 		i, _ := slices.BinarySearch(pilotRanks, k)
@@ -99,26 +81,47 @@ func NewSketchSelector(n int, opt Options, pilot *Sketch) *Selector {
 		}
 		s.brackets = append(s.brackets, [2]uint64{lo, hi})
 	}
-	// Merge overlapping brackets.
-	slices.SortFunc(s.brackets, func(a, b [2]uint64) int {
-		switch {
-		case a[0] < b[0]:
-			return -1
-		case a[0] > b[0]:
-			return 1
+	s.brackets = mergeBrackets(s.brackets)
+	return s
+}
+
+// pilotEnds returns, for each needed rank but the extremes (which are
+// tracked exactly), the ranks among a pilot of m values of its bracket's
+// ends, −1 for an open end.
+func (s *Selector) pilotEnds(m int) [][2]int {
+	var ends [][2]int
+	for _, r := range s.ranks {
+		if r == 0 || r == s.n-1 {
+			continue
 		}
-		return 0
-	})
-	merged := s.brackets[:0]
-	for _, b := range s.brackets {
+		e := [2]int{-1, -1}
+		if m > 1 {
+			p := float64(r) / float64(s.n-1)
+			d := 7*math.Sqrt(p*(1-p)/float64(m)) + 2/float64(m)
+			if k := math.Floor((p - d) * float64(m-1)); k >= 0 {
+				e[0] = int(k)
+			}
+			if k := math.Ceil((p + d) * float64(m-1)); k < float64(m) {
+				e[1] = int(k)
+			}
+		}
+		ends = append(ends, e)
+	}
+	return ends
+}
+
+// mergeBrackets returns brackets sorted and with overlapping ones merged.
+func mergeBrackets(brackets [][2]uint64) [][2]uint64 {
+	slices.SortFunc(brackets, func(a, b [2]uint64) int { return cmp.Compare(a[0], b[0]) })
+	merged := brackets[:0]
+	for _, b := range brackets {
 		if k := len(merged); k > 0 && b[0] <= merged[k-1][1] {
 			merged[k-1][1] = max(merged[k-1][1], b[1])
 			continue
 		}
 		merged = append(merged, b)
 	}
-	s.brackets = merged
-	return s
+	return merged
 }
 
 // summaryRanks returns the order statistics a Summary of n values needs
@@ -240,6 +243,25 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 	return 0
 }
 
+// selectBracket returns the values at offsets offs (ascending) among the
+// size values the parts gathered in bracket b, in the order of radix.Key.
+func selectBracket(parts []*SelectorPart, b, size int, offs []int) []float64 {
+	if len(offs) == 0 {
+		return nil
+	}
+	keys := make([]uint64, 0, size)
+	for _, p := range parts {
+		for _, v := range p.inside[b] {
+			keys = append(keys, radix.Key(v))
+		}
+	}
+	vals := make([]float64, len(offs))
+	for i, k := range radix.Select(keys, make([]uint64, len(keys)), offs) {
+		vals[i] = radix.Float(k)
+	}
+	return vals
+}
+
 // b2i returns 1 for true and 0 for false; the compiler makes it a flag
 // move, without a branch.
 func b2i(b bool) int {
@@ -289,17 +311,8 @@ func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 	}
 	stat := map[int]float64{0: radix.Float(minK), n - 1: radix.Float(maxK)}
 	for b := range s.brackets {
-		if len(offs[b]) == 0 {
-			continue
-		}
-		keys := make([]uint64, 0, inside[b])
-		for _, p := range parts {
-			for _, v := range p.inside[b] {
-				keys = append(keys, radix.Key(v))
-			}
-		}
-		for i, k := range radix.Select(keys, make([]uint64, len(keys)), offs[b]) {
-			stat[ranks[b][i]] = radix.Float(k)
+		for i, v := range selectBracket(parts, b, inside[b], offs[b]) {
+			stat[ranks[b][i]] = v
 		}
 	}
 	at := func(i int) float64 {

@@ -134,6 +134,35 @@ func TestSketchSelectorBrackets(t *testing.T) {
 	}
 }
 
+// TestSelectorOpenPilot: a pilot too small to bracket with (empty, one
+// value, NaNs alone) leaves every bracket open, and the summary is still
+// Summarize's, bit for bit (the reference: a full sort).
+func TestSelectorOpenPilot(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(31, 32))
+	x := make([]float64, 5000)
+	for i := range x {
+		x[i] = rng.NormFloat64()
+	}
+	sk := NewSketch(DefaultRelErr)
+	sk.AddSlice(x)
+	want := Summarize(slices.Clone(x), DefaultOptions)
+	for name, pilot := range map[string][]float64{"empty": nil, "one value": {0.3}, "NaNs": {math.NaN(), math.NaN()}} {
+		ps := NewSketch(DefaultRelErr)
+		ps.AddSlice(pilot)
+		sel := NewSketchSelector(len(x), DefaultOptions, ps)
+		if len(sel.brackets) != 1 || sel.brackets[0] != [2]uint64{radix.Key(math.Inf(-1)), radix.Key(math.Inf(1))} {
+			t.Errorf("%s: brackets %v, want one open bracket", name, sel.brackets)
+		}
+		p := sel.Part()
+		p.AddSlice(x)
+		got, ok := sel.Summary(sk, []*SelectorPart{p})
+		if !ok || !identicalSummary(got, want) {
+			t.Errorf("%s: ok %v,\ngot  %+v\nwant %+v", name, ok, got, want)
+		}
+	}
+}
+
 // BenchmarkSelectorAddSlice measures a part's AddSlice per value on
 // batches of 2^16 lognormal values, bracketed for a pass of 10^6.
 func BenchmarkSelectorAddSlice(b *testing.B) {

@@ -324,10 +324,11 @@ func (s *Sketch) orderStats(ranks []int) []float64 {
 
 // rankKeyRanges returns, for each of ranks (ascending, in [0, n)), a
 // closed range of radix keys that holds the value of that rank: the keys
-// of its group, from one ulp below the lower edge of its bin to the upper
-// edge (the ulp and the closed end absorb the rounding of an edge into
-// the subnormal range); both zeros for the zeros; the infinity itself
-// for an infinity.
+// of its group, for a positive bin from one ulp below its lower edge to
+// its upper edge, for a negative bin from −(upper edge) to one ulp above
+// −(lower edge) (the ulp and the closed end are margin for the rounding
+// of an edge into the subnormal range); both zeros for the zeros; the
+// infinity itself for an infinity.
 func (s *Sketch) rankKeyRanges(ranks []int) [][2]uint64 {
 	out := make([][2]uint64, len(ranks))
 	next, cum := 0, uint64(0)

@@ -102,6 +102,8 @@ func TestSketchOrderStatistics(t *testing.T) {
 // with both signs, both zeros, infinities, subnormals and magnitudes over
 // hundreds of decades, at a fine and a coarse resolution; and a range is
 // no wider than its bin (a relative 2α/(1−α), an ulp aside) for a normal value.
+// Reference: the sample sorted by radix.Key with the standard library's
+// slices.SortFunc, the order every exact order statistic here follows.
 func TestSketchRankKeyRanges(t *testing.T) {
 	t.Parallel()
 	x := normal(5000, 0, 1, 6)

@@ -1,21 +1,31 @@
 package radix
 
 import (
+	"fmt"
 	"math/bits"
 	"slices"
 )
 
 // Select returns the keys of the given ranks in increasing order of keys:
 // out[i] is the key that sorted keys would hold at ranks[i]. ranks must be
-// ascending and each in [0, len(keys)). It reorders keys; buf, at least as
-// long, is scratch. It costs a few passes over keys (most-significant
-// digit first, into the buckets that hold a wanted rank only), instead of
-// a sort's eight. It panics if a rank is out of range.
+// ascending (repeats allowed) and each in [0, len(keys)). It reorders
+// keys; buf, at least as long, is scratch. It costs a few passes over keys
+// (most-significant digit first, into the buckets that hold a wanted rank
+// only), instead of a sort's eight. It panics if the ranks are out of
+// range or out of order, or buf is short.
 func Select(keys, buf []uint64, ranks []int) []uint64 {
-	out := make([]uint64, len(ranks))
-	if len(ranks) > 0 && (ranks[0] < 0 || ranks[len(ranks)-1] >= len(keys)) {
-		panic("radix: Select rank out of range")
+	for i, r := range ranks {
+		if r < 0 || r >= len(keys) {
+			panic(fmt.Sprintf("radix: Select rank %d outside [0, %d)", r, len(keys)))
+		}
+		if i > 0 && r < ranks[i-1] {
+			panic(fmt.Sprintf("radix: Select ranks not ascending: %d after %d", r, ranks[i-1]))
+		}
 	}
+	if len(buf) < len(keys) {
+		panic("radix: Select scratch shorter than the keys")
+	}
+	out := make([]uint64, len(ranks))
 	selectInto(keys, buf[:len(keys)], ranks, 0, out)
 	return out
 }
@@ -46,46 +56,54 @@ func selectInto(keys, buf []uint64, ranks []int, base int, out []uint64) {
 	// The keys share their bits above the highest one in which lo and hi
 	// differ; the digit is the 8 bits that end with it.
 	shift := uint(max(0, 56-bits.LeadingZeros64(lo^hi)))
+	for _, w := range gatherWanted(keys, buf, shift, ranks, base) {
+		seg := buf[w.at : w.at+w.count]
+		selectInto(seg, keys[:w.count], ranks[w.ranks[0]:w.ranks[1]], base+w.start, out[w.ranks[0]:w.ranks[1]])
+	}
+}
+
+// wantedBucket is a bucket of selectInto that holds wanted ranks: its
+// start among the keys, its size, its place in buf, and its ranks,
+// ranks[r0:r1].
+type wantedBucket struct {
+	start, count, at int
+	ranks            [2]int
+}
+
+// gatherWanted copies, in one pass, the keys of every bucket of the digit
+// at shift that holds a wanted rank into buf, bucket after bucket, and
+// returns those buckets in ascending order.
+func gatherWanted(keys, buf []uint64, shift uint, ranks []int, base int) []wantedBucket {
 	var count [256]int
 	for _, k := range keys {
 		count[byte(k>>shift)]++
 	}
-	// The buckets that hold a wanted rank, their start among keys, and
-	// their place in buf, where one pass gathers them.
-	var start, at [256]int
-	var want [256]bool
-	s, w, r := 0, 0, 0
+	var wanted []wantedBucket
+	var slot [256]int // 1 + the bucket's index in wanted, or 0
+	s, at, r := 0, 0, 0
 	for d := range 256 {
-		start[d] = s
-		s += count[d]
-		for r < len(ranks) && ranks[r]-base < s {
-			if !want[d] {
-				want[d], at[d] = true, w
-				w += count[d]
-			}
+		r0 := r
+		for r < len(ranks) && ranks[r]-base < s+count[d] {
 			r++
 		}
+		if r > r0 {
+			wanted = append(wanted, wantedBucket{start: s, count: count[d], at: at, ranks: [2]int{r0, r}})
+			slot[d] = len(wanted)
+			at += count[d]
+		}
+		s += count[d]
 	}
-	pos := at
+	var pos [256]int
+	for d := range 256 {
+		if slot[d] > 0 {
+			pos[d] = wanted[slot[d]-1].at
+		}
+	}
 	for _, k := range keys {
-		if d := byte(k >> shift); want[d] {
+		if d := byte(k >> shift); slot[d] > 0 {
 			buf[pos[d]] = k
 			pos[d]++
 		}
 	}
-	for i := 0; i < len(ranks); {
-		d := 0
-		for d = range 256 { // the bucket of ranks[i]
-			if want[d] && ranks[i]-base < start[d]+count[d] {
-				break
-			}
-		}
-		j := i
-		for j < len(ranks) && ranks[j]-base < start[d]+count[d] {
-			j++
-		}
-		seg := buf[at[d] : at[d]+count[d]]
-		selectInto(seg, keys[:count[d]], ranks[i:j], base+start[d], out[i:j])
-		i = j
-	}
+	return wanted
 }

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -71,4 +72,32 @@ func BenchmarkSelect(b *testing.B) {
 			Sort(work, buf, 0, nil, nil)
 		}
 	})
+}
+
+// TestSelectRefusesBadRanks: ranks out of order or out of range panic
+// with a message that says which, rather than loop or index wrongly.
+func TestSelectRefusesBadRanks(t *testing.T) {
+	t.Parallel()
+	keys := make([]uint64, 1000)
+	for i := range keys {
+		keys[i] = uint64(i * 7 % 1000)
+	}
+	for _, tc := range []struct {
+		ranks []int
+		want  string
+	}{
+		{[]int{5, 2000, 3}, "outside [0, 1000)"},
+		{[]int{900, 5, 950}, "not ascending"},
+		{[]int{-1}, "outside [0, 1000)"},
+	} {
+		func() {
+			defer func() {
+				msg, _ := recover().(string)
+				if !strings.Contains(msg, tc.want) {
+					t.Errorf("ranks %v: panic %q, want one saying %q", tc.ranks, msg, tc.want)
+				}
+			}()
+			Select(slices.Clone(keys), make([]uint64, len(keys)), tc.ranks)
+		}()
+	}
 }
