@@ -236,14 +236,23 @@ func (pw *portfolioWorker) batch(b int) error {
 			return err
 		}
 	}
+	// The prospects' batches are independent (the shared draws are read
+	// only): they run side by side, and the error of the first failing
+	// prospect is returned, whatever the timing.
+	errs := make([]error, len(pw.wks))
 	var n int
-	for i, wk := range pw.wks {
-		m, z, err := wk.batch(b, pw.given[i])
+	parallel(len(pw.wks), pr.workers, func(i int) {
+		m, z, err := pw.wks[i].batch(b, pw.given[i])
+		errs[i] = err
+		if i == 0 {
+			n = m
+		}
+		pr.zero[i].Add(int64(z))
+	})
+	for _, err := range errs {
 		if err != nil {
 			return err
 		}
-		n = m
-		pr.zero[i].Add(int64(z))
 	}
 	if pr.outTgt != nil {
 		if err := pw.correlateOutcomes(b, n); err != nil {
