@@ -139,18 +139,15 @@ func summaryRanks(n int, level float64) []int {
 // SelectorPart is one goroutine's share of a Selector's pass. It is not
 // safe for concurrent use.
 type SelectorPart struct {
-	s          *Selector
-	below      []int       // values below each bracket
-	inside     [][]float64 // values inside each bracket
-	minK, maxK uint64      // the extremes, in radix.Key order
-	n          int
-	gathered   []float64 // scratch: the values of a pass inside some bracket
+	s        *Selector
+	below    []int       // values below each bracket
+	inside   [][]float64 // values inside each bracket
+	gathered []float64   // scratch: the values of a pass inside some bracket
 }
 
 // Part returns a new part of the pass.
 func (s *Selector) Part() *SelectorPart {
-	return &SelectorPart{s: s, below: make([]int, len(s.brackets)), inside: make([][]float64, len(s.brackets)),
-		minK: math.MaxUint64}
+	return &SelectorPart{s: s, below: make([]int, len(s.brackets)), inside: make([][]float64, len(s.brackets))}
 }
 
 // AddSlice adds the values x (NaNs are left out, as in Summarize).
@@ -167,7 +164,6 @@ func (p *SelectorPart) AddSlice(x []float64) {
 		x = clean
 		p.pass(x, 0)
 	}
-	p.n += len(x)
 	for g := len(selectorSlots{}.lo); g < len(p.s.brackets); g += len(selectorSlots{}.lo) {
 		p.pass(x, g) // more than three brackets: not needed by a Summary
 	}
@@ -178,9 +174,8 @@ func (p *SelectorPart) AddSlice(x []float64) {
 // above every key.
 type selectorSlots struct{ lo, width [3]uint64 }
 
-// pass adds x to brackets g, g+1 and g+2 (those that exist) and, from
-// the first, to the extremes; it returns the number of NaNs in x, and
-// when there are any it adds nothing. Each value costs a few
+// pass adds x to brackets g, g+1 and g+2 (those that exist); it returns
+// the number of NaNs in x, and when there are any it adds nothing. Each value costs a few
 // instructions without a branch: the loop keeps everything in registers,
 // counts with comparisons, and gathers into a small buffer that the next
 // value overwrites unless the value lies in a bracket.
@@ -195,8 +190,9 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 	}
 	lo0, lo1, lo2 := sl.lo[0], sl.lo[1], sl.lo[2]
 	w0, w1, w2 := sl.width[0], sl.width[1], sl.width[2]
-	var b0, b1, b2 int
-	minK, maxK := p.minK, p.maxK
+	// NaNs have keys outside those of ±Inf: k − Key(−Inf) > span.
+	nanLo, span := radix.Key(math.Inf(-1)), radix.Key(math.Inf(1))-radix.Key(math.Inf(-1))
+	var b0, b1, b2, bad int
 	gathered := p.gathered[:0]
 	var buf [256]float64
 	for rest := x; len(rest) > 0; {
@@ -205,7 +201,7 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 		m := 0
 		for _, v := range chunk {
 			k := radix.Key(v)
-			minK, maxK = min(minK, k), max(maxK, k)
+			bad |= b2i(k-nanLo > span)
 			b0 += b2i(k < lo0)
 			b1 += b2i(k < lo1)
 			b2 += b2i(k < lo2)
@@ -215,16 +211,11 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 		gathered = append(gathered, buf[:m]...)
 	}
 	p.gathered = gathered
-	// NaNs have keys outside those of ±Inf, so the extremes tell whether
-	// there were any.
-	if minK < radix.Key(math.Inf(-1)) || maxK > radix.Key(math.Inf(1)) {
+	if bad != 0 {
 		for _, v := range x {
 			nan += b2i(v != v)
 		}
 		return nan
-	}
-	if g == 0 {
-		p.minK, p.maxK = minK, maxK
 	}
 	for i, b := range [3]int{b0, b1, b2} {
 		if g+i < len(br) {
@@ -272,7 +263,7 @@ func b2i(b bool) int {
 }
 
 // Summary returns the exact Summary of the values the parts were fed, with
-// the moments and NaN count of sk (a sketch of the same values), as
+// the moments, extremes and NaN count of sk (a sketch of the same values), as
 // Summarize would give, and true; or false when a needed order statistic
 // lies outside its bracket.
 func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
@@ -281,14 +272,10 @@ func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 		panic("stats: Selector.Summary with a sketch of another count")
 	}
 	below, inside := make([]int, len(s.brackets)), make([]int, len(s.brackets))
-	minK, maxK := uint64(math.MaxUint64), uint64(0)
 	for _, p := range parts {
 		for b := range s.brackets {
 			below[b] += p.below[b]
 			inside[b] += len(p.inside[b])
-		}
-		if p.n > 0 {
-			minK, maxK = min(minK, p.minK), max(maxK, p.maxK)
 		}
 	}
 	// Each needed rank's offset in its bracket, ascending in each, and
@@ -309,7 +296,7 @@ func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 			return Summary{}, false
 		}
 	}
-	stat := map[int]float64{0: radix.Float(minK), n - 1: radix.Float(maxK)}
+	stat := map[int]float64{0: sk.min, n - 1: sk.max} // exact, in key order
 	for b := range s.brackets {
 		for i, v := range selectBracket(parts, b, inside[b], offs[b]) {
 			stat[ranks[b][i]] = v

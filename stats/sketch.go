@@ -18,7 +18,7 @@ const DefaultRelErr = 1e-4
 // runs too long to keep every trial. It keeps exact counts in a histogram of
 // logarithmic bins of constant relative width (one for positive values, a
 // mirrored one for negative values, and counters for zeros, infinities and
-// NaNs), the exact minimum and maximum, and exact sums of the values and of
+// NaNs), the exact minimum and maximum (−0 before +0), and exact sums of the values and of
 // their squares.
 //
 // Error bound: with α = RelErr() (at most the relErr asked of NewSketch),
@@ -114,13 +114,20 @@ func (s *Sketch) Add(x float64) {
 		return
 	}
 	s.n++
-	if x < s.min {
+	if keyLess(x, s.min) {
 		s.min = x
 	}
-	if x > s.max {
+	if keyLess(s.max, x) {
 		s.max = x
 	}
 	s.mom.add(x)
+}
+
+// keyLess reports whether a comes before b in the order of radix.Key,
+// for values that are not NaN: a < b, or −0 before +0. With it the
+// extremes do not depend on the order of the values.
+func keyLess(a, b float64) bool {
+	return a < b || (a == b && math.Signbit(a) && !math.Signbit(b))
 }
 
 // AddSlice adds every value of xs, as Add would one by one.
@@ -214,10 +221,10 @@ func (s *Sketch) Merge(o *Sketch) {
 	s.negInf += o.negInf
 	s.nan += o.nan
 	s.n += o.n
-	if o.min < s.min {
+	if keyLess(o.min, s.min) {
 		s.min = o.min
 	}
-	if o.max > s.max {
+	if keyLess(s.max, o.max) {
 		s.max = o.max
 	}
 	s.mom.merge(o.mom)

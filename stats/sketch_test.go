@@ -136,6 +136,26 @@ func TestSketchRankKeyRanges(t *testing.T) {
 	}
 }
 
+// TestSketchSignedZeroExtremes: with both zeros among the values, the
+// minimum is −0 and the maximum +0 (the order of radix.Key, which
+// Summarize's sort follows), whatever the order of adding and merging.
+func TestSketchSignedZeroExtremes(t *testing.T) {
+	t.Parallel()
+	neg, pos := math.Copysign(0, -1), 0.0
+	for _, order := range [][]float64{{pos, neg}, {neg, pos}, {pos, neg, pos}} {
+		one := NewSketchOf(order)
+		a, b := NewSketchOf(order[:1]), NewSketchOf(order[1:])
+		a.Merge(b)
+		for name, s := range map[string]*Sketch{"added": one, "merged": a} {
+			sum := s.Summary(DefaultOptions)
+			if !math.Signbit(sum.Min) || math.Signbit(sum.Max) {
+				t.Errorf("%v, %s: min %v (sign %v), max %v (sign %v); want −0 and +0", order, name,
+					sum.Min, math.Signbit(sum.Min), sum.Max, math.Signbit(sum.Max))
+			}
+		}
+	}
+}
+
 // TestSketchMerge: sketches of the parts, merged in any order or grouping,
 // give a Summary identical, bit for bit, to the sketch of the whole.
 func TestSketchMerge(t *testing.T) {
