@@ -151,7 +151,11 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 			copy(wk.in[j], g[:n])
 		}
 	}
-	if err := r.plan.Fill(b, wk.drawn()); err != nil {
+	var ranks [][]int32 // batch 0's ranks, where the sensitivity takes them
+	if b == 0 {
+		ranks = r.sensRanks
+	}
+	if err := r.plan.FillRanked(b, wk.drawn(), ranks); err != nil {
 		return n, 0, err
 	}
 	for j, in := range r.sampled {

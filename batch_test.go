@@ -2,6 +2,8 @@ package rockheat
 
 import (
 	"fmt"
+	"reflect"
+	"slices"
 	"sync"
 	"testing"
 )
@@ -67,6 +69,53 @@ func TestForBatches(t *testing.T) {
 		})
 		if want := "batch 4"; err == nil || err.Error() != want {
 			t.Errorf("%d workers: error %v, want %q", workers, err, want)
+		}
+	}
+}
+
+// TestSensitivityRanksFromPlan: the demo's inputs, a Latin hypercube
+// without correlations, take their ranks from the plan, and the
+// sensitivities are those of ranking every input by sorting
+// (stats.DoubledRanks), bit for bit, in a kept and in a selecting run.
+func TestSensitivityRanksFromPlan(t *testing.T) {
+	t.Parallel()
+	for _, trials := range []int{100_000, 400_000} {
+		var got [2][]Sensitivity
+		for k, sort := range []bool{false, true} {
+			c, err := demoRun(t).resolve()
+			if err != nil {
+				t.Fatal(err)
+			}
+			set, err := resolveOptions(c, Options{Trials: trials})
+			if err != nil {
+				t.Fatal(err)
+			}
+			r := newRun(c, set)
+			if r.sensRanks == nil {
+				t.Fatalf("%d trials: the demo's run takes no ranks from its plan", trials)
+			}
+			if sort {
+				r.sensRanks = nil
+			}
+			if set.keepsOutputs() {
+				err = r.keepExact()
+			} else {
+				err = r.selectExact()
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !sort && slices.ContainsFunc(r.sensRanks, func(rk []int32) bool { return rk == nil }) {
+				t.Errorf("%d trials: the plan gave no ranks for some inputs", trials)
+			}
+			res, err := r.result()
+			if err != nil {
+				t.Fatal(err)
+			}
+			got[k] = res.Sensitivity
+		}
+		if len(got[0]) == 0 || !reflect.DeepEqual(got[0], got[1]) {
+			t.Errorf("%d trials: sensitivities with the plan's ranks differ from sorting's:\n%+v\n%+v", trials, got[0], got[1])
 		}
 	}
 }

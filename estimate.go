@@ -37,6 +37,9 @@ type run struct {
 	sensIn    [][]float64 // inputs of the sensitivity sample, unless keepIn holds them
 	sensOut   [][]float64 // its outputs, unless exactOut holds them
 	sensN     int
+	// sensRanks, if not nil, receives from the plan the doubled ranks of
+	// the sensitivity sample's draws, where it knows them (nil where not).
+	sensRanks [][]int32
 	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting
 	selection *selection        // exact order statistics without the trials, or nil
 	converged bool              // a run to a precision reached it
@@ -120,6 +123,15 @@ func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 	}
 	if !s.keepsOutputs() && r.sensN > 0 {
 		r.sensOut = columns(len(r.specs), r.sensN)
+	}
+	// A Latin hypercube without correlations knows the order of its draws:
+	// the sensitivity sample's inputs need no ranking when it is a whole
+	// batch.
+	if _, n0 := r.plan.BatchRange(0); r.sensN == n0 && r.drawn == nil && corr == nil && c.run.Sampling == sampler.LatinHypercube {
+		r.sensRanks = make([][]int32, len(r.sampled))
+		for j := range r.sensRanks {
+			r.sensRanks[j] = make([]int32, n0)
+		}
 	}
 	return r
 }

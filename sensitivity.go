@@ -36,7 +36,13 @@ func (r *run) sensitivity() []Sensitivity {
 		return d
 	}
 	inRanks := make([][]int32, len(sensIn))
-	parallel(len(sensIn), r.s.workers, func(j int) { inRanks[j] = ranked(sensIn[j]) })
+	parallel(len(sensIn), r.s.workers, func(j int) {
+		if r.sensRanks != nil && r.sensRanks[j] != nil {
+			inRanks[j] = r.sensRanks[j] // from the plan
+			return
+		}
+		inRanks[j] = ranked(sensIn[j])
+	})
 	low, high, base := r.swings()
 	index := make(map[string]int, len(r.names))
 	for k, name := range r.names {

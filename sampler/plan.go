@@ -89,9 +89,20 @@ func (p *Plan) BatchRange(b int) (start, n int) {
 // for a Latin hypercube, a uniform offset in each of the batch's n strata
 // in stratum order, their quantiles, then a random shuffle (stratified);
 // for random sampling, one probability per trial, then their quantiles.
-func (p *Plan) Fill(b int, cols [][]float64) error {
-	if len(cols) != len(p.dists) {
-		panic(fmt.Sprintf("sampler: Fill with %d columns for %d distributions", len(cols), len(p.dists)))
+func (p *Plan) Fill(b int, cols [][]float64) error { return p.FillRanked(b, cols, nil) }
+
+// FillRanked is Fill that also gives the order of the draws where the
+// plan knows it without a sort: if ranks is not nil (one slice per
+// distribution, each of length at least n), ranks[j][i] becomes twice
+// the rank of trial start+i's draw of distribution j among the batch's
+// draws of j (1-based, ties sharing the mean of their ranks: the doubled
+// ranks of stats.DoubledRanks), or ranks[j] becomes nil where the plan
+// does not know it (a nil ranks[j] is left alone). It knows it for a Latin hypercube without
+// correlations whose quantiles do not decrease from stratum to stratum.
+// The draws are those of Fill.
+func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
+	if len(cols) != len(p.dists) || (ranks != nil && len(ranks) != len(p.dists)) {
+		panic(fmt.Sprintf("sampler: Fill with %d columns and %d rank columns for %d distributions", len(cols), len(ranks), len(p.dists)))
 	}
 	_, n := p.BatchRange(b)
 	// The PCG itself, not a rand.Rand round it, so that its draws inline.
@@ -103,8 +114,17 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 				col[i] = open01(rng)
 			}
 			quantiles(d, col)
-		} else {
-			stratified(rng, d, col)
+			if ranks != nil {
+				ranks[j] = nil
+			}
+			continue
+		}
+		var rk []int32
+		if ranks != nil && ranks[j] != nil && p.corr == nil {
+			rk = ranks[j][:n]
+		}
+		if !stratified(rng, d, col, rk) && ranks != nil {
+			ranks[j] = nil
 		}
 	}
 	if p.corr != nil && n > 1 {
@@ -122,7 +142,11 @@ func (p *Plan) Fill(b int, cols [][]float64) error {
 // (0, 1) and drawn in stratum order, then shuffled into a uniformly random
 // order. The quantiles are taken in stratum order, increasing, so that a
 // table-driven quantile walks its table in order rather than at random.
-func stratified(rng *rand.PCG, d Distribution, col []float64) {
+//
+// If ranks is not nil (as long as col), stratified also writes the
+// doubled rank of each draw there (see FillRanked) and reports whether
+// it could: whether the quantiles do not decrease with the stratum.
+func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32) bool {
 	inv := 1 / float64(len(col))
 	// Each 64-bit draw gives the offsets of two strata, 32 bits each: p
 	// is then resolved to 2^−32 of a stratum, below 10⁻¹⁴ for a batch.
@@ -136,7 +160,34 @@ func stratified(rng *rand.PCG, d Distribution, col []float64) {
 		col[k] = (float64(k) + open01(rng)) * inv
 	}
 	quantiles(d, col)
-	shuffle(rng, col)
+	ranked := ranks != nil && strataRanks(col, ranks)
+	if !ranked {
+		ranks = nil
+	}
+	shuffle(rng, col, ranks)
+	return ranked
+}
+
+// strataRanks writes into ranks the doubled ranks of col, the quantiles
+// of the strata in stratum order, and reports whether they do not
+// decrease (else ranks is not written in full). A run of equal values
+// a … b−1 shares the doubled rank a + b + 1, twice the mean of the ranks
+// a+1 … b.
+func strataRanks(col []float64, ranks []int32) bool {
+	for a := 0; a < len(col); {
+		b := a + 1
+		for b < len(col) && col[b] == col[a] {
+			b++
+		}
+		if b < len(col) && !(col[b] > col[a]) {
+			return false
+		}
+		for k := a; k < b; k++ {
+			ranks[k] = int32(a + b + 1)
+		}
+		a = b
+	}
+	return true
 }
 
 // SliceQuantiler is a distribution that maps a slice of probabilities to
@@ -161,8 +212,8 @@ func quantiles(d Distribution, ps []float64) {
 // Fisher–Yates shuffle (Knuth, TAOCP vol. 2, algorithm P), each index
 // drawn by Lemire's multiply-and-reject method (Lemire 2019, "Fast random
 // integer generation in an interval"), exact, from one 32-bit half of a
-// 64-bit draw.
-func shuffle(rng *rand.PCG, x []float64) {
+// 64-bit draw. y, if not nil, is put in the same order.
+func shuffle(rng *rand.PCG, x []float64, y []int32) {
 	var pool uint64 // unused 32-bit halves of a draw
 	have := 0
 	for i := len(x) - 1; i > 0; i-- {
@@ -181,6 +232,9 @@ func shuffle(rng *rand.PCG, x []float64) {
 		}
 		j := int(m >> 32)
 		x[i], x[j] = x[j], x[i]
+		if y != nil {
+			y[i], y[j] = y[j], y[i]
+		}
 	}
 }
 

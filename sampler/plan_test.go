@@ -1,14 +1,16 @@
 package sampler
 
 import (
-	"math/rand/v2"
-
-	"gonum.org/v1/gonum/stat/distuv"
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 
+	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat"
+	"gonum.org/v1/gonum/stat/distuv"
+
+	"rockheat/stats"
 )
 
 // TestLatinHypercubeStrata checks the defining property of Latin hypercube
@@ -193,7 +195,7 @@ func TestShuffleUniform(t *testing.T) {
 	perm := make([]float64, 4)
 	for range draws {
 		copy(perm, []float64{0, 1, 2, 3})
-		shuffle(rng, perm)
+		shuffle(rng, perm, nil)
 		counts[[4]float64(perm)]++
 	}
 	if len(counts) != 24 {
@@ -232,5 +234,81 @@ func TestSliceQuantiles(t *testing.T) {
 				t.Fatalf("%v: Quantiles gives %v at p = %v, Quantile %v", d, got[i], p, want)
 			}
 		}
+	}
+}
+
+// TestFillRankedMatchesSort: the ranks FillRanked gives a Latin hypercube
+// without correlations are the doubled ranks of a sort of the draws
+// (stats.DoubledRanks, the reference), for continuous distributions, for
+// one with ties (a range a few ulps wide) and for a constant, in a whole
+// and a partial batch; the draws are Fill's; and random or correlated
+// plans give no ranks.
+func TestFillRankedMatchesSort(t *testing.T) {
+	t.Parallel()
+	u, _ := NewUniform(2, 5)
+	tri, _ := NewTriangular(3, 6, 14)
+	pert, _ := NewPERT(0.02, 0.06, 0.12)
+	nrm, _ := NewNormal(235, 12, 200, math.Inf(1))
+	ln, _ := NewLogNormal(0, 0.5, 0, math.Inf(1))
+	tiny, _ := NewUniform(1, 1+8*0x1p-52) // nine values: ties
+	dists := []Distribution{u, tri, pert, nrm, ln, tiny, Fixed{Value: 3}}
+	var s stats.RankScratch
+	for _, trials := range []int{BatchSize, 1000} {
+		p := NewPlan(dists, Config{Trials: trials, Seed: 5, Method: LatinHypercube})
+		cols, ranks := make([][]float64, len(dists)), make([][]int32, len(dists))
+		for j := range cols {
+			cols[j], ranks[j] = make([]float64, trials), make([]int32, trials)
+		}
+		if err := p.FillRanked(0, cols, ranks); err != nil {
+			t.Fatal(err)
+		}
+		want := fillAll(t, p)
+		for j, d := range dists {
+			if !slices.Equal(cols[j], want[j]) {
+				t.Fatalf("%v, %d trials: FillRanked's draws differ from Fill's", d, trials)
+			}
+			if ranks[j] == nil {
+				t.Errorf("%v, %d trials: no ranks from a Latin hypercube", d, trials)
+				continue
+			}
+			dr := make([]int32, trials)
+			stats.DoubledRanks(cols[j], dr, &s)
+			if !slices.Equal(ranks[j], dr) {
+				t.Errorf("%v, %d trials: ranks differ from a sort's", d, trials)
+			}
+		}
+	}
+	corr := mat.NewSymDense(2, []float64{1, 0.5, 0.5, 1})
+	for name, cfg := range map[string]Config{
+		"random":     {Trials: 1000, Seed: 5, Method: Random},
+		"correlated": {Trials: 1000, Seed: 5, Method: LatinHypercube, Correlation: corr},
+	} {
+		p := NewPlan([]Distribution{u, tri}, cfg)
+		cols := [][]float64{make([]float64, 1000), make([]float64, 1000)}
+		ranks := [][]int32{make([]int32, 1000), make([]int32, 1000)}
+		if err := p.FillRanked(0, cols, ranks); err != nil {
+			t.Fatal(err)
+		}
+		if ranks[0] != nil || ranks[1] != nil {
+			t.Errorf("%s: ranks given, where the plan cannot know them", name)
+		}
+	}
+}
+
+// TestStrataRanks: doubled ranks of quantiles in stratum order, with a
+// run of ties sharing the mean of their ranks (2, 6, 6, 6, 10: twice the
+// ranks 1, 3 — the mean of 2, 3, 4 — and 5), and a quantile that falls from one stratum to the next
+// refused.
+func TestStrataRanks(t *testing.T) {
+	t.Parallel()
+	r := make([]int32, 5)
+	if !strataRanks([]float64{1, 2, 2, 2, 3}, r) || !slices.Equal(r, []int32{2, 6, 6, 6, 10}) {
+		t.Errorf("ties: %v, want [2 6 6 6 10]", r)
+	}
+	if strataRanks([]float64{1, 2, 1.5, 3, 4}, r) {
+		t.Error("a falling quantile was ranked")
+	}
+	if strataRanks([]float64{1, 2, math.NaN(), 3, 4}, r) {
+		t.Error("a NaN was ranked")
 	}
 }
