@@ -146,6 +146,9 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 	start, n := r.plan.BatchRange(b)
 	// Draws that nothing keeps are converted to SI in place.
 	inPlace := wk.place(start, n) && given == nil
+	if inPlace {
+		clear(wk.si) // SI buffers of an earlier batch whose draws were kept (batch 0): not needed again
+	}
 	for j, g := range given {
 		if g != nil {
 			copy(wk.in[j], g[:n])
