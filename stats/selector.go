@@ -12,9 +12,11 @@ import (
 // statistics that a Summary needs, without keeping the values: from a
 // pilot sample of the same values it brackets each needed rank with a
 // range of values wide enough to hold it with overwhelming probability,
-// gathers the values inside the brackets and counts those below them, and
-// after the pass selects each order statistic from its bracket. A
-// bracket holds a few per cent of the values.
+// made of whole bins of the pilot's sketch, gathers the values inside the
+// brackets, and after the pass selects each order statistic from its
+// bracket; a sketch of the same values counts those below each bracket,
+// bin by bin, and checks the count inside. A bracket holds a few per cent
+// of the values.
 //
 // A pass is split into SelectorParts, one per goroutine, each fed its
 // share of the values in any order; the result does not depend on the
@@ -26,7 +28,7 @@ type Selector struct {
 	n        int
 	level    float64
 	ranks    []int       // the order statistics needed, sorted
-	brackets [][2]uint64 // [lo, hi] in radix.Key order, sorted, disjoint
+	brackets [][2]uint64 // [lo, hi] in radix.Key order, sorted, disjoint, of whole sketch groups
 }
 
 // NewSelector returns a selector for a pass over n values that are not
@@ -140,32 +142,20 @@ func summaryRanks(n int, level float64) []int {
 // safe for concurrent use.
 type SelectorPart struct {
 	s        *Selector
-	below    []int       // values below each bracket
 	inside   [][]float64 // values inside each bracket
 	gathered []float64   // scratch: the values of a pass inside some bracket
 }
 
 // Part returns a new part of the pass.
 func (s *Selector) Part() *SelectorPart {
-	return &SelectorPart{s: s, below: make([]int, len(s.brackets)), inside: make([][]float64, len(s.brackets))}
+	return &SelectorPart{s: s, inside: make([][]float64, len(s.brackets))}
 }
 
-// AddSlice adds the values x (NaNs are left out, as in Summarize).
+// AddSlice adds the values x. A NaN lies in no bracket, so NaNs are left
+// out, as in Summarize.
 func (p *SelectorPart) AddSlice(x []float64) {
-	if nan := p.pass(x, 0); nan > 0 {
-		// Rare: leave the NaNs out and start again. The pass changed
-		// nothing but the scratch.
-		clean := make([]float64, 0, len(x)-nan)
-		for _, v := range x {
-			if v == v {
-				clean = append(clean, v)
-			}
-		}
-		x = clean
-		p.pass(x, 0)
-	}
-	for g := len(selectorSlots{}.lo); g < len(p.s.brackets); g += len(selectorSlots{}.lo) {
-		p.pass(x, g) // more than three brackets: not needed by a Summary
+	for g := 0; g < len(p.s.brackets); g += len(selectorSlots{}.lo) {
+		p.pass(x, g) // a Summary's brackets take one pass
 	}
 }
 
@@ -174,12 +164,13 @@ func (p *SelectorPart) AddSlice(x []float64) {
 // above every key.
 type selectorSlots struct{ lo, width [3]uint64 }
 
-// pass adds x to brackets g, g+1 and g+2 (those that exist); it returns
-// the number of NaNs in x, and when there are any it adds nothing. Each value costs a few
-// instructions without a branch: the loop keeps everything in registers,
-// counts with comparisons, and gathers into a small buffer that the next
-// value overwrites unless the value lies in a bracket.
-func (p *SelectorPart) pass(x []float64, g int) (nan int) {
+// pass gathers the values of x in brackets g, g+1 and g+2 (those that
+// exist). Each value costs a few instructions without a branch: the loop
+// tests with comparisons and gathers into a small buffer that the next
+// value overwrites unless the value lies in a bracket. The values below
+// each bracket are not counted here: the sketch of the same values gives
+// them (see Summary).
+func (p *SelectorPart) pass(x []float64, g int) {
 	br := p.s.brackets
 	var sl selectorSlots
 	for i := range sl.lo {
@@ -190,9 +181,6 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 	}
 	lo0, lo1, lo2 := sl.lo[0], sl.lo[1], sl.lo[2]
 	w0, w1, w2 := sl.width[0], sl.width[1], sl.width[2]
-	// NaNs have keys outside those of ±Inf: k − Key(−Inf) > span.
-	nanLo, span := radix.Key(math.Inf(-1)), radix.Key(math.Inf(1))-radix.Key(math.Inf(-1))
-	var b0, b1, b2, bad int
 	gathered := p.gathered[:0]
 	var buf [256]float64
 	for rest := x; len(rest) > 0; {
@@ -201,27 +189,12 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 		m := 0
 		for _, v := range chunk {
 			k := radix.Key(v)
-			bad |= b2i(k-nanLo > span)
-			b0 += b2i(k < lo0)
-			b1 += b2i(k < lo1)
-			b2 += b2i(k < lo2)
 			buf[m&(len(buf)-1)] = v
 			m += b2i(k-lo0 <= w0) | b2i(k-lo1 <= w1) | b2i(k-lo2 <= w2)
 		}
 		gathered = append(gathered, buf[:m]...)
 	}
 	p.gathered = gathered
-	if bad != 0 {
-		for _, v := range x {
-			nan += b2i(v != v)
-		}
-		return nan
-	}
-	for i, b := range [3]int{b0, b1, b2} {
-		if g+i < len(br) {
-			p.below[g+i] += b
-		}
-	}
 	for _, v := range gathered { // into their brackets, which are disjoint
 		k := radix.Key(v)
 		for i := range sl.lo {
@@ -231,7 +204,6 @@ func (p *SelectorPart) pass(x []float64, g int) (nan int) {
 			}
 		}
 	}
-	return 0
 }
 
 // selectBracket returns the values at offsets offs (ascending) among the
@@ -263,20 +235,26 @@ func b2i(b bool) int {
 }
 
 // Summary returns the exact Summary of the values the parts were fed, with
-// the moments, extremes and NaN count of sk (a sketch of the same values), as
-// Summarize would give, and true; or false when a needed order statistic
-// lies outside its bracket.
+// the moments, extremes and NaN count of sk (a sketch of the same values,
+// at the pilot's resolution, which also counts the values below each
+// bracket), as Summarize would give, and true; or false when a needed
+// order statistic lies outside its bracket (or sk does not agree with
+// the parts on the count inside a bracket, which it always does for the
+// same values).
 func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 	n := int(sk.n)
 	if n != s.n {
 		panic("stats: Selector.Summary with a sketch of another count")
 	}
-	below, inside := make([]int, len(s.brackets)), make([]int, len(s.brackets))
+	below, want, ok := sk.bracketCounts(s.brackets)
+	inside := make([]int, len(s.brackets))
 	for _, p := range parts {
 		for b := range s.brackets {
-			below[b] += p.below[b]
 			inside[b] += len(p.inside[b])
 		}
+	}
+	if !ok || !slices.Equal(inside, want) {
+		return Summary{}, false // brackets not of whole groups, or other values: never by construction
 	}
 	// Each needed rank's offset in its bracket, ascending in each, and
 	// the rank itself.

@@ -134,6 +134,41 @@ func TestSketchSelectorBrackets(t *testing.T) {
 	}
 }
 
+// TestSelectorWholeBins: brackets of whole sketch bins give Summarize's
+// summary, bit for bit (the reference: a full sort), for values of both
+// signs with ties, subnormals and both zeros near the needed ranks; and a
+// sketch at another resolution than the pilot's, whose bins the brackets
+// split, is refused rather than trusted.
+func TestSelectorWholeBins(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(51, 52))
+	x := make([]float64, 200_000)
+	for i := range x {
+		switch i % 5 {
+		case 0:
+			x[i] = float64(rng.IntN(9)-4) * 0x1p-1070 // subnormals, ties and zeros
+		case 1:
+			x[i] = math.Copysign(0, -1)
+		default:
+			x[i] = rng.NormFloat64()*1e-300 - 0.3e-300
+		}
+	}
+	sk := NewSketch(DefaultRelErr)
+	sk.AddSlice(x)
+	sel := NewSelector(len(x), DefaultOptions, x[:1<<16])
+	p := sel.Part()
+	p.AddSlice(x)
+	got, ok := sel.Summary(sk, []*SelectorPart{p})
+	if want := Summarize(slices.Clone(x), DefaultOptions); !ok || !identicalSummary(got, want) {
+		t.Errorf("ok %v,\ngot  %+v\nwant %+v", ok, got, want)
+	}
+	coarse := NewSketch(0.01)
+	coarse.AddSlice(x)
+	if _, ok := sel.Summary(coarse, []*SelectorPart{p}); ok {
+		t.Error("a sketch whose bins the brackets split was trusted")
+	}
+}
+
 // TestSelectorOpenPilot: a pilot too small to bracket with (empty, one
 // value, NaNs alone) leaves every bracket open, and the summary is still
 // Summarize's, bit for bit (the reference: a full sort).

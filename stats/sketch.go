@@ -329,13 +329,9 @@ func (s *Sketch) orderStats(ranks []int) []float64 {
 	return out
 }
 
-// rankKeyRanges returns, for each of ranks (ascending, in [0, n)), a
-// closed range of radix keys that holds the value of that rank: the keys
-// of its group, for a positive bin from one ulp below its lower edge to
-// its upper edge, for a negative bin from −(upper edge) to one ulp above
-// −(lower edge) (the ulp and the closed end are margin for the rounding
-// of an edge into the subnormal range); both zeros for the zeros; the
-// infinity itself for an infinity.
+// rankKeyRanges returns, for each of ranks (ascending, in [0, n)), the
+// closed range of radix keys of the group (bin, zeros or infinity) that
+// holds the value of that rank (see keyRange).
 func (s *Sketch) rankKeyRanges(ranks []int) [][2]uint64 {
 	out := make([][2]uint64, len(ranks))
 	next, cum := 0, uint64(0)
@@ -353,8 +349,12 @@ func (s *Sketch) rankKeyRanges(ranks []int) [][2]uint64 {
 	return out
 }
 
-// keyRange returns the closed range of radix keys of the values of group
-// g (see rankKeyRanges).
+// keyRange returns the closed range of radix keys of every value that
+// group g takes: exactly the values of its bin (they are those whose
+// bits, or whose bits scaled by 2^64 for a subnormal, lie between the
+// bin's fraction bounds at its exponent), both zeros, or the infinity.
+// The ranges of different groups do not overlap, so a range made of
+// whole groups splits no group.
 func (s *Sketch) keyRange(g group) [2]uint64 {
 	switch g.kind {
 	case 1:
@@ -364,11 +364,34 @@ func (s *Sketch) keyRange(g group) [2]uint64 {
 	case 3:
 		return [2]uint64{radix.Key(math.Inf(1)), radix.Key(math.Inf(1))}
 	}
-	lo, hi := s.tab.edges(g.index) // of |x|: lo ≤ |x| < hi
+	lo, hi := s.tab.bitRange(g.index) // of |x|: lo ≤ bits(|x|) < hi
 	if g.neg {
-		return [2]uint64{radix.Key(-hi), radix.Key(-lo) + 1}
+		return [2]uint64{^((hi - 1) | 1<<63), ^(lo | 1<<63)}
 	}
-	return [2]uint64{radix.Key(lo) - 1, radix.Key(hi)}
+	return [2]uint64{lo | 1<<63, (hi - 1) | 1<<63}
+}
+
+// bracketCounts returns, for each of brackets (closed key ranges, sorted
+// and disjoint), the number of values below it and inside it, and true;
+// or false if a bracket splits a group, whose values it cannot count.
+func (s *Sketch) bracketCounts(brackets [][2]uint64) (below, inside []int, ok bool) {
+	below, inside = make([]int, len(brackets)), make([]int, len(brackets))
+	ok = true
+	s.groups(func(g group, c uint64) bool {
+		r := s.keyRange(g)
+		for b, br := range brackets {
+			switch {
+			case r[1] < br[0]:
+				below[b] += int(c)
+			case r[0] >= br[0] && r[1] <= br[1]:
+				inside[b] += int(c)
+			case r[0] <= br[1]:
+				ok = false // straddles an end
+			}
+		}
+		return ok
+	})
+	return below, inside, ok
 }
 
 // Quantiles returns Quantile(q) for each q of qs, in one walk over the
@@ -626,21 +649,27 @@ func (t *binTable) index(x float64) int {
 	return e*t.k + j
 }
 
-// edges returns the ends of bin index i, lo ≤ x < hi for its values
-// (up to rounding of an end below the normal range).
-func (t *binTable) edges(i int) (lo, hi float64) {
+// bitRange returns the range [lo, hi) of the bits of the positive values
+// of bin index i, which holds m·2^e with fraction bits f of m in
+// [frac[j], frac[j+1]) for i = e·k + j. For a normal e that is the bits
+// themselves; below (the subnormals, which index scales by 2^64 into the
+// normal range), the multiples n of 2^−1074 with n·2^−1074 in the bin.
+func (t *binTable) bitRange(i int) (lo, hi uint64) {
 	e := i / t.k
 	j := i - e*t.k
 	if j < 0 {
 		e--
 		j += t.k
 	}
-	mant := func(f uint64) float64 { return math.Float64frombits(1023<<52 | f) } // 1 + f/2^52
-	lo, hi = math.Ldexp(mant(t.frac[j]), e), math.Ldexp(2, e)
-	if j+1 < t.k {
-		hi = math.Ldexp(mant(t.frac[j+1]), e)
+	m0, m1 := 1<<52+t.frac[j], 1<<52+t.frac[j+1] // significands, 2^52 scale; m1 ≤ 2^53
+	if be := e + 1023; be >= 1 {
+		// m1 = 2^53 (the last bin of a binade) carries into the exponent.
+		return uint64(be)<<52 + m0 - 1<<52, uint64(be)<<52 + m1 - 1<<52
 	}
-	return lo, hi
+	// n·2^−1074 ≥ m·2^(e−52), n ≥ m·2^(e+1022): round the shift up.
+	sh := uint(-(e + 1022)) // ≥ 1
+	up := func(m uint64) uint64 { return (m + 1<<sh - 1) >> sh }
+	return up(m0), up(m1)
 }
 
 // value returns the representative value of bin index i.

@@ -100,8 +100,8 @@ func TestSketchOrderStatistics(t *testing.T) {
 // TestSketchRankKeyRanges: the key range the sketch gives for each rank
 // holds the exact order statistic of that rank, for every rank of a sample
 // with both signs, both zeros, infinities, subnormals and magnitudes over
-// hundreds of decades, at a fine and a coarse resolution; and a range is
-// no wider than its bin (a relative 2α/(1−α), an ulp aside) for a normal value.
+// hundreds of decades, at a fine and a coarse resolution; the ranges of
+// different groups do not overlap.
 // Reference: the sample sorted by radix.Key with the standard library's
 // slices.SortFunc, the order every exact order statistic here follows.
 func TestSketchRankKeyRanges(t *testing.T) {
@@ -111,7 +111,7 @@ func TestSketchRankKeyRanges(t *testing.T) {
 		x[i] = math.Copysign(math.Pow(10, 300*x[i]), x[i]-0.1) // reaches the subnormals
 	}
 	x = append(x, 0, 0, math.Copysign(0, -1), math.Inf(1), math.Inf(-1), 5e-324, -5e-324,
-		math.SmallestNonzeroFloat64*3, math.MaxFloat64, -math.MaxFloat64, math.NaN())
+		math.SmallestNonzeroFloat64*3, math.MaxFloat64, -math.MaxFloat64, 0x1p-1022, -0x1p-1022, math.NaN())
 	sorted := slices.DeleteFunc(slices.Clone(x), math.IsNaN)
 	slices.SortFunc(sorted, func(a, b float64) int { return cmp.Compare(radix.Key(a), radix.Key(b)) })
 	ranks := make([]int, len(sorted))
@@ -121,16 +121,49 @@ func TestSketchRankKeyRanges(t *testing.T) {
 	for _, alpha := range []float64{DefaultRelErr, 0.01} {
 		s := NewSketch(alpha)
 		s.AddSlice(x)
-		for k, r := range s.rankKeyRanges(ranks) {
+		rs := s.rankKeyRanges(ranks)
+		for k, r := range rs {
 			v := sorted[k]
 			if key := radix.Key(v); key < r[0] || key > r[1] {
 				t.Fatalf("α %g, rank %d: value %v outside its range [%v, %v]", alpha, k, v, radix.Float(r[0]), radix.Float(r[1]))
 			}
-			if a := math.Abs(v); a >= 0x1p-1022 && a <= math.MaxFloat64/2 {
-				lo, hi := math.Abs(radix.Float(r[0])), math.Abs(radix.Float(r[1]))
-				if w, e := math.Abs(hi-lo)/a, s.RelErr(); w > 2*e/(1-e)*1.001 {
-					t.Errorf("α %g, rank %d: range [%v, %v] is %.3g wide, relative to %v", alpha, k, radix.Float(r[0]), radix.Float(r[1]), w, v)
-				}
+			if k > 0 && r != rs[k-1] && r[0] <= rs[k-1][1] {
+				t.Fatalf("α %g, rank %d: range %v overlaps the one before, %v", alpha, k, r, rs[k-1])
+			}
+		}
+	}
+}
+
+// TestBinBitRange: bitRange is exact: the first and last bits of a bin's
+// range index to the bin, and the bits just outside to its neighbours,
+// for bins of normal and of subnormal values (whose index scales them by
+// 2^64) and the last bin of a binade, at two resolutions.
+func TestBinBitRange(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(41, 42))
+	for _, alpha := range []float64{DefaultRelErr, 0.01} {
+		tab := NewSketch(alpha).tab
+		index := func(u uint64) int { return tab.index(math.Float64frombits(u)) }
+		lowest, highest := index(1), index(math.Float64bits(math.MaxFloat64))
+		var bins []int
+		for range 3000 {
+			bins = append(bins, lowest+rng.IntN(highest-lowest+1))
+		}
+		bins = append(bins, lowest, highest, index(math.Float64bits(0x1p-1022)), index(math.Float64bits(0x1p-1022))-1,
+			index(math.Float64bits(1)), index(math.Float64bits(1))-1)
+		for _, i := range bins {
+			lo, hi := tab.bitRange(i)
+			if lo >= hi {
+				continue // a bin no float64 falls in (possible among the subnormals)
+			}
+			if index(lo) != i || index(hi-1) != i {
+				t.Fatalf("α %g, bin %d: range [%#x, %#x) indexes to %d … %d", alpha, i, lo, hi, index(lo), index(hi-1))
+			}
+			if lo > 1 && index(lo-1) >= i {
+				t.Fatalf("α %g, bin %d: bits %#x below the range index to %d", alpha, i, lo-1, index(lo-1))
+			}
+			if hi < math.Float64bits(math.Inf(1)) && index(hi) <= i {
+				t.Fatalf("α %g, bin %d: bits %#x above the range index to %d", alpha, i, hi, index(hi))
 			}
 		}
 	}
