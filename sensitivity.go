@@ -22,7 +22,7 @@ func (r *run) sensitivity() []Sensitivity {
 		sensOut = r.sensOut
 	}
 	sensIn, sensOut = prefix(sensIn, r.sensN), prefix(sensOut, r.sensN)
-	r.sensIn, r.sensOut = nil, nil // no longer needed once ranked
+	defer func() { r.sensIn, r.sensOut, r.sensRanks = nil, nil, nil }() // not needed once ranked
 	// One rank scratch per goroutine, handed round through a channel.
 	scratch := make(chan *stats.RankScratch, max(1, r.s.workers))
 	for range cap(scratch) {

@@ -305,6 +305,10 @@ func TestStrataRanks(t *testing.T) {
 	if !strataRanks([]float64{1, 2, 2, 2, 3}, r) || !slices.Equal(r, []int32{2, 6, 6, 6, 10}) {
 		t.Errorf("ties: %v, want [2 6 6 6 10]", r)
 	}
+	neg := math.Copysign(0, -1)
+	if !strataRanks([]float64{-1, neg, 0, neg, 1}, r) || !slices.Equal(r, []int32{2, 6, 6, 6, 10}) {
+		t.Errorf("both zeros: %v, want [2 6 6 6 10] (they tie, as in stats.DoubledRanks)", r)
+	}
 	if strataRanks([]float64{1, 2, 1.5, 3, 4}, r) {
 		t.Error("a falling quantile was ranked")
 	}

@@ -160,8 +160,9 @@ func (p *SelectorPart) AddSlice(x []float64) {
 }
 
 // selectorSlots are the brackets one pass of a part handles: bracket i
-// holds the keys k with k − lo[i] ≤ width[i]; an unused slot is empty and
-// above every key.
+// holds the keys k with k − lo[i] ≤ width[i]. An unused slot repeats the
+// first (no key is above every other: a NaN's may be the largest), so
+// that it takes no value the first does not.
 type selectorSlots struct{ lo, width [3]uint64 }
 
 // pass gathers the values of x in brackets g, g+1 and g+2 (those that
@@ -174,10 +175,11 @@ func (p *SelectorPart) pass(x []float64, g int) {
 	br := p.s.brackets
 	var sl selectorSlots
 	for i := range sl.lo {
-		sl.lo[i] = math.MaxUint64
+		b := br[g]
 		if g+i < len(br) {
-			sl.lo[i], sl.width[i] = br[g+i][0], br[g+i][1]-br[g+i][0]
+			b = br[g+i]
 		}
+		sl.lo[i], sl.width[i] = b[0], b[1]-b[0]
 	}
 	lo0, lo1, lo2 := sl.lo[0], sl.lo[1], sl.lo[2]
 	w0, w1, w2 := sl.width[0], sl.width[1], sl.width[2]
@@ -235,12 +237,13 @@ func b2i(b bool) int {
 }
 
 // Summary returns the exact Summary of the values the parts were fed, with
-// the moments, extremes and NaN count of sk (a sketch of the same values,
-// at the pilot's resolution, which also counts the values below each
-// bracket), as Summarize would give, and true; or false when a needed
-// order statistic lies outside its bracket (or sk does not agree with
-// the parts on the count inside a bracket, which it always does for the
-// same values).
+// the moments, extremes and NaN count of sk, as Summarize would give, and
+// true; or false when a needed order statistic lies outside its bracket.
+// sk must be a sketch of exactly the values the parts were fed, at a
+// resolution whose bins the brackets do not split (the pilot's): it alone
+// counts the values below each bracket. A sketch whose bins a bracket
+// splits, or whose count inside a bracket differs from the parts', gives
+// false.
 func (s *Selector) Summary(sk *Sketch, parts []*SelectorPart) (Summary, bool) {
 	n := int(sk.n)
 	if n != s.n {

@@ -169,6 +169,57 @@ func TestSelectorWholeBins(t *testing.T) {
 	}
 }
 
+// TestSelectorNaNKeys: NaNs of extreme keys (the largest and the smallest
+// of all) and others are left out with one, two and four brackets (fewer
+// than a pass's slots, and more), and the summary of a selector as made
+// is Summarize's (the reference: a full sort, which leaves NaNs out).
+func TestSelectorNaNKeys(t *testing.T) {
+	t.Parallel()
+	rng := rand.New(rand.NewPCG(61, 62))
+	nans := []float64{math.Float64frombits(0x7fff_ffff_ffff_ffff), math.Float64frombits(0xffff_ffff_ffff_ffff),
+		math.Float64frombits(0x7ff8_0000_0000_0001), math.Float64frombits(0xfff0_0000_0000_0001)}
+	for _, brackets := range []int{1, 2, 4} {
+		x := make([]float64, 20_000)
+		for i := range x {
+			x[i] = rng.NormFloat64()
+		}
+		for i, v := range nans {
+			x[100*i+7] = v
+		}
+		sk := NewSketch(DefaultRelErr)
+		sk.AddSlice(x)
+		n := len(x) - len(nans)
+		sel := NewSelector(n, DefaultOptions, x[:5000])
+		for len(sel.brackets) > brackets { // fewer brackets: drop some, as a merge would
+			sel.brackets = sel.brackets[:len(sel.brackets)-1]
+		}
+		for len(sel.brackets) < brackets { // more: split the last in two
+			last := sel.brackets[len(sel.brackets)-1]
+			mid := last[0] + (last[1]-last[0])/2
+			sel.brackets = append(sel.brackets[:len(sel.brackets)-1], [2]uint64{last[0], mid}, [2]uint64{mid + 1, last[1]})
+		}
+		p := sel.Part()
+		p.AddSlice(x) // must not panic
+		for b, in := range p.inside {
+			for _, v := range in {
+				if v != v {
+					t.Fatalf("%d brackets: a NaN in bracket %d", brackets, b)
+				}
+			}
+		}
+		if brackets == 1 {
+			// The selector as made, on the same values: exact.
+			sel := NewSelector(n, DefaultOptions, x[:5000])
+			p := sel.Part()
+			p.AddSlice(x)
+			got, ok := sel.Summary(sk, []*SelectorPart{p})
+			if want := Summarize(slices.Clone(x), DefaultOptions); !ok || !identicalSummary(got, want) {
+				t.Errorf("ok %v,\ngot  %+v\nwant %+v", ok, got, want)
+			}
+		}
+	}
+}
+
 // TestSelectorOpenPilot: a pilot too small to bracket with (empty, one
 // value, NaNs alone) leaves every bracket open, and the summary is still
 // Summarize's, bit for bit (the reference: a full sort).

@@ -134,36 +134,35 @@ func TestSketchRankKeyRanges(t *testing.T) {
 	}
 }
 
-// TestBinBitRange: bitRange is exact: the first and last bits of a bin's
-// range index to the bin, and the bits just outside to its neighbours,
-// for bins of normal and of subnormal values (whose index scales them by
-// 2^64) and the last bin of a binade, at two resolutions.
+// TestBinBitRange: bitRange is exact, against binTable.index (the
+// reference: the bin every value is counted in): bins meet end to end
+// with neither gap nor overlap over whole binades (the lowest subnormals,
+// the subnormal–normal boundary at 2^−1022, around 1, and the top, whose
+// last bin ends at +Inf's bits), and the first and last bits of each bin
+// index to it, at coarse, default and walking (multi) resolutions.
 func TestBinBitRange(t *testing.T) {
 	t.Parallel()
-	rng := rand.New(rand.NewPCG(41, 42))
-	for _, alpha := range []float64{DefaultRelErr, 0.01} {
+	for _, alpha := range []float64{0.1, 0.01, DefaultRelErr, 1e-6} {
 		tab := NewSketch(alpha).tab
 		index := func(u uint64) int { return tab.index(math.Float64frombits(u)) }
-		lowest, highest := index(1), index(math.Float64bits(math.MaxFloat64))
-		var bins []int
-		for range 3000 {
-			bins = append(bins, lowest+rng.IntN(highest-lowest+1))
-		}
-		bins = append(bins, lowest, highest, index(math.Float64bits(0x1p-1022)), index(math.Float64bits(0x1p-1022))-1,
-			index(math.Float64bits(1)), index(math.Float64bits(1))-1)
-		for _, i := range bins {
-			lo, hi := tab.bitRange(i)
-			if lo >= hi {
-				continue // a bin no float64 falls in (possible among the subnormals)
+		for _, e := range []int{-1074, -1073, -1060, -1023, -1022, -1021, -1, 0, 1, 1022, 1023} {
+			first := e * tab.k
+			_, end := tab.bitRange(first - 1)
+			if e == -1074 {
+				end = 1 // the smallest subnormal
 			}
-			if index(lo) != i || index(hi-1) != i {
-				t.Fatalf("α %g, bin %d: range [%#x, %#x) indexes to %d … %d", alpha, i, lo, hi, index(lo), index(hi-1))
+			for i := first; i < first+tab.k; i++ {
+				lo, hi := tab.bitRange(i)
+				if lo != end {
+					t.Fatalf("α %g, bin %d: starts at %#x, the bin before ends at %#x", alpha, i, lo, end)
+				}
+				if lo < hi && (index(lo) != i || index(hi-1) != i) {
+					t.Fatalf("α %g, bin %d: range [%#x, %#x) indexes to %d … %d", alpha, i, lo, hi, index(lo), index(hi-1))
+				}
+				end = hi
 			}
-			if lo > 1 && index(lo-1) >= i {
-				t.Fatalf("α %g, bin %d: bits %#x below the range index to %d", alpha, i, lo-1, index(lo-1))
-			}
-			if hi < math.Float64bits(math.Inf(1)) && index(hi) <= i {
-				t.Fatalf("α %g, bin %d: bits %#x above the range index to %d", alpha, i, hi, index(hi))
+			if e == 1023 && end != math.Float64bits(math.Inf(1)) {
+				t.Errorf("α %g: the last bin ends at %#x, not at +Inf", alpha, end)
 			}
 		}
 	}
