@@ -269,7 +269,8 @@ func (pw *portfolioWorker) batch(b int) error {
 // correlateOutcomes reorders the trials of the prospects in outcome
 // correlations so that their electric capacities have the target rank
 // correlations (Iman–Conover on their ranks, so that each prospect's
-// trials move whole: its inputs and outputs stay together).
+// trials move whole: its outputs stay together, and its inputs with them
+// when the trials are kept).
 func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 	pr := pw.pr
 	const power = PortfolioPower
@@ -299,7 +300,11 @@ func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 			perm[t] = orders[a][int(r)]
 		}
 		wk := pw.wks[i]
-		for _, col := range append(append([][]float64(nil), wk.out...), wk.in...) {
+		cols := wk.out
+		if pr.samples != nil { // the inputs move with their outputs only where they are written out
+			cols = append(append([][]float64(nil), wk.out...), wk.in...)
+		}
+		for _, col := range cols {
 			for t, src := range perm {
 				pw.tmp[t] = col[src]
 			}
