@@ -20,8 +20,9 @@ type selection struct {
 // batch), and its sketches are the pilots of the outputs' selectors.
 // While batch 0 runs, a second worker draws and evaluates batch 1; once
 // the selectors exist, workers 0 and 1 add batches 0 and 1 to them (and
-// batch 1 to the sketches) before they run the rest. Should a selector's brackets miss (a
-// chance below 1e-11), the run is made again keeping every output.
+// batch 1 to the sketches) before they run the rest. Should a selector's
+// brackets miss (a chance below 1e-11), the run is made again keeping
+// every output.
 func (r *run) selectExact() error {
 	r.startSketches()
 	r.planned = r.s.trials
