@@ -11,7 +11,7 @@ import (
 // ascending (repeats allowed) and each in [0, len(keys)). It reorders
 // keys; buf, at least as long, is scratch. It costs a few passes over keys
 // (most-significant digit first, into the buckets that hold a wanted rank
-// only), instead of a sort's eight. It panics if the ranks are out of
+// only: radix selection, common practice), instead of a sort's eight. It panics if the ranks are out of
 // range or out of order, or buf is short.
 func Select(keys, buf []uint64, ranks []int) []uint64 {
 	for i, r := range ranks {
