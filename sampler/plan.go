@@ -97,9 +97,9 @@ func (p *Plan) Fill(b int, cols [][]float64) error { return p.FillRanked(b, cols
 // the rank of trial start+i's draw of distribution j among the batch's
 // draws of j (1-based, ties sharing the mean of their ranks: the doubled
 // ranks of stats.DoubledRanks), or ranks[j] becomes nil where the plan
-// does not know it (a nil ranks[j] is left alone). It knows it for a Latin hypercube without
-// correlations whose quantiles do not decrease from stratum to stratum.
-// The draws are those of Fill.
+// does not know it (a nil ranks[j] is left alone). It knows it for a
+// Latin hypercube without correlations whose quantiles do not decrease
+// from stratum to stratum. The draws are those of Fill.
 func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 	if len(cols) != len(p.dists) || (ranks != nil && len(ranks) != len(p.dists)) {
 		panic(fmt.Sprintf("sampler: Fill with %d columns and %d rank columns for %d distributions", len(cols), len(ranks), len(p.dists)))

@@ -307,15 +307,7 @@ func (s *Sketch) orderStats(ranks []int) []float64 {
 	for i := range out {
 		out[i] = math.Inf(1)
 	}
-	next, cum := 0, uint64(0)
-	s.groups(func(g group, c uint64) bool {
-		for next < len(ranks) && uint64(ranks[next]) < cum+c {
-			out[next] = s.value(g)
-			next++
-		}
-		cum += c
-		return next < len(ranks)
-	})
+	s.rankGroups(ranks, func(i int, g group) { out[i] = s.value(g) })
 	for i, k := range ranks {
 		switch uint64(k) {
 		case 0:
@@ -334,19 +326,26 @@ func (s *Sketch) orderStats(ranks []int) []float64 {
 // holds the value of that rank (see keyRange).
 func (s *Sketch) rankKeyRanges(ranks []int) [][2]uint64 {
 	out := make([][2]uint64, len(ranks))
+	if s.rankGroups(ranks, func(i int, g group) { out[i] = s.keyRange(g) }) < len(ranks) {
+		panic("stats: rankKeyRanges with a rank beyond the values")
+	}
+	return out
+}
+
+// rankGroups calls f(i, g) with the group g that holds the value of rank
+// ranks[i], for each of ranks (ascending), in one walk over the bins, and
+// returns the number of ranks it found among the values.
+func (s *Sketch) rankGroups(ranks []int, f func(i int, g group)) int {
 	next, cum := 0, uint64(0)
 	s.groups(func(g group, c uint64) bool {
 		for next < len(ranks) && uint64(ranks[next]) < cum+c {
-			out[next] = s.keyRange(g)
+			f(next, g)
 			next++
 		}
 		cum += c
 		return next < len(ranks)
 	})
-	if next < len(ranks) {
-		panic("stats: rankKeyRanges with a rank beyond the values")
-	}
-	return out
+	return next
 }
 
 // keyRange returns the closed range of radix keys of every value that
