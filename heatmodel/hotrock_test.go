@@ -141,6 +141,26 @@ func TestHotRockPerTrialColumns(t *testing.T) {
 	}
 }
 
+// TestHeatMiningPowerPoints checks P(t) = (E0/τ)·e^(−t/τ) (Armstead &
+// Tester 1987, docs/references.md) at points with analytic values: P(0) =
+// E0/τ exactly (the shortcut that skips the exponential must give the
+// same bits as the formula), P(τ) = E0/(e·τ), P(2τ) = E0/(e²·τ).
+func TestHeatMiningPowerPoints(t *testing.T) {
+	t.Parallel()
+	rnd := rand.New(rand.NewPCG(3, 4))
+	for range 100 {
+		e0, tau := 1e12+1e18*rnd.Float64(), 1e7+1e10*rnd.Float64()
+		if got, want := HeatMiningPower(e0, tau, 0), e0/tau*math.Exp(-0/tau); got != want {
+			t.Fatalf("P(0) = %v, want E0/τ·e^0 = %v bit for bit (E0 %g, τ %g)", got, want, e0, tau)
+		}
+		for k, want := range []float64{e0 / tau / math.E, e0 / tau / (math.E * math.E)} {
+			if got := HeatMiningPower(e0, tau, float64(k+1)*tau); !scalar.EqualWithinRel(got, want, 1e-14) {
+				t.Fatalf("P(%dτ) = %v, want %v (E0 %g, τ %g)", k+1, got, want, e0, tau)
+			}
+		}
+	}
+}
+
 // TestHeatMiningEnergyBalance checks that the power decline integrates to
 // the heat mined, ∫_0^L P(t) dt = E0·(1 − e^(−L/τ)) (the exponential
 // heat-mining model, Armstead & Tester 1987), by Simpson's rule
