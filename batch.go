@@ -86,6 +86,9 @@ type worker struct {
 	in, out           [][]float64 // the current batch's draws and outputs
 	localIn, localOut [][]float64 // where they go when nothing keeps them
 	fill              [][]float64 // the columns of in the plan draws
+	// lend, if not nil, lends localIn, localOut and si for one batch at a
+	// time (borrow, giveBack) instead of the worker owning them.
+	lend *colPool
 }
 
 // worker returns the run's worker of slot w, made on first use and kept
@@ -105,23 +108,50 @@ func (r *run) worker(w int) *worker {
 	return r.pool[w]
 }
 
-func (r *run) newWorker(w int) *worker {
+func (r *run) newWorker(w int) *worker { return r.newLendingWorker(w, nil) }
+
+// newLendingWorker is newWorker with its buffers lent by lend, if not nil,
+// batch by batch; the run may then keep no draws or outputs.
+func (r *run) newLendingWorker(w int, lend *colPool) *worker {
 	size := min(sampler.BatchSize, r.plan.Trials())
-	wk := &worker{r: r, w: w, size: size,
+	wk := &worker{r: r, w: w, size: size, lend: lend,
 		si:  make([][]float64, len(r.sampled)),
 		in:  make([][]float64, len(r.sampled)),
 		out: make([][]float64, len(r.specs))}
 	// Buffers only where a batch needs them: somewhere for the draws and
 	// outputs that the run does not keep; the SI columns of inputs not in
 	// SI units (si) are made when first needed (see batch).
-	if r.keepIn == nil {
+	if r.keepIn == nil && lend == nil {
 		wk.localIn = columns(len(r.sampled), size)
 	}
-	if r.exactOut == nil {
+	if r.exactOut == nil && lend == nil {
 		wk.localOut = columns(len(r.specs), size)
 	}
 	wk.ev, wk.cols = r.newEvaluator()
 	return wk
+}
+
+// borrow takes the worker's buffers for a batch from its lender, if it
+// has one.
+func (wk *worker) borrow() {
+	if wk.lend != nil && wk.localIn == nil {
+		wk.localIn, wk.localOut = wk.lend.take(len(wk.in)), wk.lend.take(len(wk.out))
+	}
+}
+
+// giveBack returns the buffers of borrow, and the SI columns, to the
+// lender once the batch's draws and outputs are no longer needed.
+func (wk *worker) giveBack() {
+	if wk.lend == nil {
+		return
+	}
+	for _, cols := range [][][]float64{wk.localIn, wk.localOut, wk.si} {
+		wk.lend.give(cols)
+	}
+	wk.localIn, wk.localOut = nil, nil
+	clear(wk.si)
+	clear(wk.in)
+	clear(wk.out)
 }
 
 // newEvaluator returns an evaluator of the run's model with its fixed
@@ -165,7 +195,7 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 		buf := wk.in[j]
 		if !inPlace && (in.unit.Scale != 1 || in.unit.Offset != 0) {
 			if wk.si[j] == nil {
-				wk.si[j] = make([]float64, wk.size)
+				wk.si[j] = wk.newColumn()
 			}
 			buf = wk.si[j]
 		}
@@ -181,6 +211,15 @@ func (wk *worker) batch(b int, given [][]float64) (n, zeroHeat int, err error) {
 		}
 	}
 	return n, z, nil
+}
+
+// newColumn returns a column of the worker's batch size, lent if it has a
+// lender.
+func (wk *worker) newColumn() []float64 {
+	if wk.lend != nil {
+		return wk.lend.one()
+	}
+	return make([]float64, wk.size)
 }
 
 // toReportUnit converts the SI values x of output sp to its report unit,

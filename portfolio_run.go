@@ -192,6 +192,12 @@ type portfolioWorker struct {
 	risked  [][]float64   // [output] risked total of the batch
 	tmp     []float64
 	sk      *portfolioSketches
+	// held marks the prospects whose draws and outputs stay in their own
+	// buffers for the whole batch: those in outcome correlations, or all
+	// when the trials are kept. The others borrow theirs from lend while
+	// they are evaluated and added.
+	held []bool
+	lend *colPool
 }
 
 func (pr *portfolioRun) newWorker() *portfolioWorker {
@@ -199,9 +205,15 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 	size := min(sampler.BatchSize, pr.trials)
 	pw := &portfolioWorker{pr: pr, shared: columns(len(pr.shared), size), success: columns(n, size),
 		total: columns(len(PortfolioOutputs), size), risked: columns(len(PortfolioOutputs), size), tmp: make([]float64, size),
-		sk: &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))}}
+		sk:   &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))},
+		held: make([]bool, n), lend: &colPool{size: size}}
 	for i, r := range pr.runs {
-		pw.wks = append(pw.wks, r.newWorker(0))
+		pw.held[i] = pr.keep || slices.Contains(pr.outcome, i)
+		lend := pw.lend
+		if pw.held[i] {
+			lend = nil
+		}
+		pw.wks = append(pw.wks, r.newLendingWorker(0, lend))
 		// A prospect that shares no draw takes none from the portfolio, so
 		// its batches convert their own draws to SI in place, unless the
 		// trials are kept in their units.
@@ -228,7 +240,11 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 	return pw
 }
 
-// batch runs batch b of every prospect and adds it to the sketches.
+// batch runs batch b of every prospect and adds it to the sketches. The
+// held prospects run first, and have their outcomes correlated; then the
+// others run a few at a time, side by side, and the prospects are added
+// in order, so that the totals are summed in the same order whatever the
+// timing.
 func (pw *portfolioWorker) batch(b int) error {
 	pr := pw.pr
 	for k, plan := range pr.shared {
@@ -236,17 +252,59 @@ func (pw *portfolioWorker) batch(b int) error {
 			return err
 		}
 	}
-	// The prospects' batches are independent (the shared draws are read
-	// only): they run side by side, and the error of the first failing
-	// prospect is returned, whatever the timing.
-	errs := make([]error, len(pw.wks))
-	var n int
-	parallel(len(pw.wks), pr.workers, func(i int) {
-		m, z, err := pw.wks[i].batch(b, pw.given[i])
-		errs[i] = err
-		if i == 0 {
-			n = m
+	_, n := pr.runs[0].plan.BatchRange(b)
+	var held []int
+	for i, h := range pw.held {
+		if h {
+			held = append(held, i)
 		}
+	}
+	if err := pw.evaluate(b, held); err != nil {
+		return pw.failed(b, err)
+	}
+	if pr.outTgt != nil {
+		if err := pw.correlateOutcomes(b, n); err != nil {
+			return pw.failed(b, err)
+		}
+	}
+	if err := pw.drawSuccess(b, n); err != nil {
+		return pw.failed(b, err)
+	}
+	pw.startTotals(n)
+	step := max(1, pr.workers)
+	var run []int
+	for lo := 0; lo < len(pw.wks); {
+		hi := lo
+		for run = run[:0]; hi < len(pw.wks) && len(run) < step; hi++ {
+			if !pw.held[hi] {
+				run = append(run, hi)
+			}
+		}
+		if err := pw.evaluate(b, run); err != nil {
+			return pw.failed(b, err)
+		}
+		for i := lo; i < hi; i++ {
+			pw.addProspect(i, n)
+			pw.wks[i].giveBack()
+		}
+		lo = hi
+	}
+	pw.finish(b, n)
+	return nil
+}
+
+// evaluate runs batch b of the prospects idx side by side (their batches
+// are independent: the shared draws are read only), and returns the error
+// of the first of them that failed, whatever the timing.
+func (pw *portfolioWorker) evaluate(b int, idx []int) error {
+	pr := pw.pr
+	errs := make([]error, len(idx))
+	parallel(len(idx), pr.workers, func(a int) {
+		i := idx[a]
+		wk := pw.wks[i]
+		wk.borrow()
+		_, z, err := wk.batch(b, pw.given[i])
+		errs[a] = err
 		pr.zero[i].Add(int64(z))
 	})
 	for _, err := range errs {
@@ -254,16 +312,23 @@ func (pw *portfolioWorker) batch(b int) error {
 			return err
 		}
 	}
-	if pr.outTgt != nil {
-		if err := pw.correlateOutcomes(b, n); err != nil {
-			return err
+	return nil
+}
+
+// failed returns the error that batch b reports once err stopped it: that
+// of the first prospect whose batch fails, else err, as when every
+// prospect ran before the outcomes were correlated and the successes
+// drawn.
+func (pw *portfolioWorker) failed(b int, err error) error {
+	for i, wk := range pw.wks {
+		wk.borrow()
+		_, _, e := wk.batch(b, pw.given[i])
+		wk.giveBack()
+		if e != nil {
+			return e
 		}
 	}
-	if err := pw.drawSuccess(b, n); err != nil {
-		return err
-	}
-	pw.add(b, n)
-	return nil
+	return err
 }
 
 // correlateOutcomes reorders the trials of the prospects in outcome
@@ -335,33 +400,41 @@ func (pw *portfolioWorker) drawSuccess(b, n int) error {
 	return sampler.ImanConover(cols, pr.sucTgt, rng)
 }
 
-// add adds the batch's figures to the worker's sketches and the run's
-// counts, and keeps its trials if asked.
-func (pw *portfolioWorker) add(b, n int) {
-	pr, c := pw.pr, pw.pr.c
+// startTotals clears the batch's unrisked and risked totals.
+func (pw *portfolioWorker) startTotals(n int) {
 	for o := range PortfolioOutputs {
 		clear(pw.total[o][:n])
 		clear(pw.risked[o][:n])
 	}
-	none, reach := 0, 0
-	for i, wk := range pw.wks {
-		p, share := c.chance[i], c.share[i]
-		for o := range PortfolioOutputs {
-			col := wk.out[pr.outIdx[i][o]][:n]
-			pw.sk.unrisked[i][o].AddSlice(col)
-			for t, v := range col {
-				net := share * v
-				pw.total[o][t] += net
-				if pw.success[i][t] < p {
-					pw.risked[o][t] += net
-					pw.tmp[t] = net
-				} else {
-					pw.tmp[t] = 0
-				}
+}
+
+// addProspect adds prospect i's figures of the batch, n trials, to its
+// sketches and to the totals.
+func (pw *portfolioWorker) addProspect(i, n int) {
+	pr, c, wk := pw.pr, pw.pr.c, pw.wks[i]
+	p, share := c.chance[i], c.share[i]
+	for o := range PortfolioOutputs {
+		col := wk.out[pr.outIdx[i][o]][:n]
+		pw.sk.unrisked[i][o].AddSlice(col)
+		for t, v := range col {
+			net := share * v
+			pw.total[o][t] += net
+			if pw.success[i][t] < p {
+				pw.risked[o][t] += net
+				pw.tmp[t] = net
+			} else {
+				pw.tmp[t] = 0
 			}
-			pw.sk.risked[i][o].AddSlice(pw.tmp[:n])
 		}
+		pw.sk.risked[i][o].AddSlice(pw.tmp[:n])
 	}
+}
+
+// finish adds batch b's totals, n trials, to the worker's sketches and the
+// run's counts, and keeps its trials if asked.
+func (pw *portfolioWorker) finish(b, n int) {
+	pr, c := pw.pr, pw.pr.c
+	none, reach := 0, 0
 	for t := range n {
 		succeeded := false
 		for i := range pw.wks {

@@ -154,6 +154,46 @@ func TestPortfolioWorkers(t *testing.T) {
 	}
 }
 
+// TestPortfolioLentBuffers: prospects that borrow their batch buffers
+// (neither kept nor in an outcome correlation) and prospects that hold
+// theirs give the same figures, bit for bit, whatever the number of
+// workers and whether the trials are kept (when every prospect holds its
+// buffers). a and e share their area, drawn in km², so their SI columns
+// are lent too; b and d are correlated, so they hold theirs between lent
+// prospects. Three batches, the last one short.
+func TestPortfolioLentBuffers(t *testing.T) {
+	t.Parallel()
+	mk := func() *Portfolio {
+		res := func(name string, chance float64) Prospect {
+			return Prospect{Name: name, Run: &Run{Title: name, Model: goReservoir(t)}, Chance: chance}
+		}
+		return &Portfolio{Title: "lent", Trials: 2*sampler.BatchSize + 5000, Seed: 21, TargetMWe: 60,
+			Prospects: []Prospect{res("a", 0.6), normalProspect(t, "b", 0.7), res("c", 0.5),
+				normalProspect(t, "d", 0.8), res("e", 0.9)},
+			Shared:       []SharedInput{{Input: "area_km2", Prospects: []string{"a", "e"}}},
+			Correlations: []ProspectCorrelation{{Prospects: [2]string{"b", "d"}, Rank: 0.6}}}
+	}
+	want, err := EstimatePortfolio(mk(), Options{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, opt := range []Options{{Workers: 2}, {Workers: 3}, {Workers: 2, KeepSamples: true}} {
+		got, err := EstimatePortfolio(mk(), opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if opt.KeepSamples {
+			if got.Samples == nil {
+				t.Fatal("KeepSamples gave no samples")
+			}
+			got.Samples = nil
+		}
+		if !reflect.DeepEqual(got, want) {
+			t.Errorf("%+v: results differ from 1 worker without kept trials", opt)
+		}
+	}
+}
+
 // TestPortfolioProblems checks the errors a portfolio can have.
 func TestPortfolioProblems(t *testing.T) {
 	t.Parallel()
