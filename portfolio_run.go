@@ -4,6 +4,7 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"slices"
+	"sync"
 	"sync/atomic"
 
 	"gonum.org/v1/gonum/mat"
@@ -94,16 +95,23 @@ type portfolioRun struct {
 	none, target atomic.Int64 // trials with no success; reaching the target
 	zero         []atomic.Int64
 	parts        []*portfolioSketches // one per worker
+	prospects    []*prospectSketches  // one per prospect, shared by the workers
 	samples      *Samples
 }
 
-// portfolioSketches are one worker's sketches of a portfolio's figures,
-// and the exact sums of each prospect's net risked figures, of which only
-// the mean is reported.
+// portfolioSketches are one worker's sketches of a portfolio's totals.
 type portfolioSketches struct {
-	unrisked         [][]*stats.Sketch // [prospect][output], gross
-	risked           [][]*stats.Mean   // [prospect][output], net risked
-	total, riskTotal []*stats.Sketch   // [output]
+	total, riskTotal []*stats.Sketch // [output]
+}
+
+// prospectSketches are the sketches of one prospect's gross figures, and
+// the exact sums of its net risked figures, of which only the mean is
+// reported. Every worker adds its batches to them, one at a time (their
+// state is exact counts and sums, so the order does not matter).
+type prospectSketches struct {
+	mu       sync.Mutex
+	unrisked []*stats.Sketch // [output], gross
+	risked   []*stats.Mean   // [output], net risked
 }
 
 func newSketches(n int) []*stats.Sketch {
@@ -120,6 +128,13 @@ func (pr *portfolioRun) setUp() {
 	c := pr.c
 	n := len(c.prospects)
 	pr.zero = make([]atomic.Int64, n)
+	for range n {
+		ps := &prospectSketches{unrisked: newSketches(len(PortfolioOutputs))}
+		for range PortfolioOutputs {
+			ps.risked = append(ps.risked, stats.NewMean())
+		}
+		pr.prospects = append(pr.prospects, ps)
+	}
 	for i, chk := range c.prospects {
 		s := &settings{trials: pr.trials, seed: mixSeed(pr.seed, prospectStream, uint64(i)), workers: 1,
 			stat: pr.stat, streaming: true, planTrials: pr.trials, maxTrials: pr.trials, noSensitivity: true}
@@ -183,15 +198,16 @@ func (pr *portfolioRun) runBatches() error {
 
 // portfolioWorker is one goroutine's share of a portfolio run.
 type portfolioWorker struct {
-	pr      *portfolioRun
-	wks     []*worker     // one per prospect
-	shared  [][]float64   // the batch's shared draws
-	given   [][][]float64 // [prospect][sampled input] → shared draw, or nil
-	success [][]float64   // [prospect] the batch's success draws, uniform on [0, 1)
-	total   [][]float64   // [output] unrisked total of the batch
-	risked  [][]float64   // [output] risked total of the batch
-	tmp     []float64
-	sk      *portfolioSketches
+	pr     *portfolioRun
+	wks    []*worker     // one per prospect
+	shared [][]float64   // the batch's shared draws
+	given  [][][]float64 // [prospect][sampled input] → shared draw, or nil
+	won    [][]bool      // [prospect] whether it succeeds in each trial of the batch
+	draws  [][]float64   // [a] the success draws of prospect pr.success[a], uniform on [0, 1)
+	total  [][]float64   // [output] unrisked total of the batch
+	risked [][]float64   // [output] risked total of the batch
+	tmp    []float64
+	sk     *portfolioSketches
 	// held marks the prospects whose draws and outputs stay in their own
 	// buffers for the whole batch: those in outcome correlations, or all
 	// when the trials are kept. The others borrow theirs from lend while
@@ -203,11 +219,12 @@ type portfolioWorker struct {
 func (pr *portfolioRun) newWorker() *portfolioWorker {
 	n := len(pr.runs)
 	size := min(sampler.BatchSize, pr.trials)
-	pw := &portfolioWorker{pr: pr, shared: columns(len(pr.shared), size), success: columns(n, size),
+	pw := &portfolioWorker{pr: pr, shared: columns(len(pr.shared), size), won: make([][]bool, n), draws: columns(len(pr.success), size),
 		total: columns(len(PortfolioOutputs), size), risked: columns(len(PortfolioOutputs), size), tmp: make([]float64, size),
 		sk:   &portfolioSketches{total: newSketches(len(PortfolioOutputs)), riskTotal: newSketches(len(PortfolioOutputs))},
 		held: make([]bool, n), lend: &colPool{size: size}}
 	for i, r := range pr.runs {
+		pw.won[i] = make([]bool, size)
 		pw.held[i] = pr.keep || slices.Contains(pr.outcome, i)
 		lend := pw.lend
 		if pw.held[i] {
@@ -230,12 +247,6 @@ func (pr *portfolioRun) newWorker() *portfolioWorker {
 			g = make([][]float64, len(r.sampled))
 		}
 		pw.given = append(pw.given, g)
-		pw.sk.unrisked = append(pw.sk.unrisked, newSketches(len(PortfolioOutputs)))
-		means := make([]*stats.Mean, len(PortfolioOutputs))
-		for o := range means {
-			means[o] = stats.NewMean()
-		}
-		pw.sk.risked = append(pw.sk.risked, means)
 	}
 	return pw
 }
@@ -379,25 +390,45 @@ func (pw *portfolioWorker) correlateOutcomes(b, n int) error {
 	return nil
 }
 
-// drawSuccess draws each prospect's success in each trial, with the target
-// rank correlations among the success draws.
+// drawSuccess draws each prospect's success in each trial: a uniform draw
+// below its chance, with the target rank correlations among the draws of
+// the prospects in success correlations, which are kept until they are
+// correlated; the others' are compared as they are drawn.
 func (pw *portfolioWorker) drawSuccess(b, n int) error {
 	pr := pw.pr
+	chance := pr.c.chance
 	rng := rand.New(rand.NewPCG(mixSeed(pr.seed, successStream, 0), uint64(b)))
-	for i := range pw.success {
-		u := pw.success[i][:n]
-		for t := range u {
-			u[t] = rng.Float64()
+	a := 0 // next of pr.success
+	for i, won := range pw.won {
+		won = won[:n]
+		if a < len(pr.success) && pr.success[a] == i {
+			u := pw.draws[a][:n]
+			for t := range u {
+				u[t] = rng.Float64()
+			}
+			a++
+			continue
+		}
+		for t := range won {
+			won[t] = rng.Float64() < chance[i]
 		}
 	}
 	if pr.sucTgt == nil {
 		return nil
 	}
 	cols := make([][]float64, len(pr.success))
-	for a, i := range pr.success {
-		cols[a] = pw.success[i][:n]
+	for a := range pr.success {
+		cols[a] = pw.draws[a][:n]
 	}
-	return sampler.ImanConover(cols, pr.sucTgt, rng)
+	if err := sampler.ImanConover(cols, pr.sucTgt, rng); err != nil {
+		return err
+	}
+	for a, i := range pr.success {
+		for t, u := range cols[a] {
+			pw.won[i][t] = u < chance[i]
+		}
+	}
+	return nil
 }
 
 // startTotals clears the batch's unrisked and risked totals.
@@ -412,21 +443,24 @@ func (pw *portfolioWorker) startTotals(n int) {
 // sketches and to the totals.
 func (pw *portfolioWorker) addProspect(i, n int) {
 	pr, c, wk := pw.pr, pw.pr.c, pw.wks[i]
-	p, share := c.chance[i], c.share[i]
+	won, share := pw.won[i][:n], c.share[i]
+	ps := pr.prospects[i]
+	ps.mu.Lock()
+	defer ps.mu.Unlock()
 	for o := range PortfolioOutputs {
 		col := wk.out[pr.outIdx[i][o]][:n]
-		pw.sk.unrisked[i][o].AddSlice(col)
+		ps.unrisked[o].AddSlice(col)
 		for t, v := range col {
 			net := share * v
 			pw.total[o][t] += net
-			if pw.success[i][t] < p {
+			if won[t] {
 				pw.risked[o][t] += net
 				pw.tmp[t] = net
 			} else {
 				pw.tmp[t] = 0
 			}
 		}
-		pw.sk.risked[i][o].AddSlice(pw.tmp[:n])
+		ps.risked[o].AddSlice(pw.tmp[:n])
 	}
 }
 
@@ -438,7 +472,7 @@ func (pw *portfolioWorker) finish(b, n int) {
 	for t := range n {
 		succeeded := false
 		for i := range pw.wks {
-			succeeded = succeeded || pw.success[i][t] < c.chance[i]
+			succeeded = succeeded || pw.won[i][t]
 		}
 		if !succeeded {
 			none++

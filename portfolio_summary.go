@@ -34,14 +34,10 @@ func (pr *portfolioRun) result() *PortfolioResult {
 			r.Warnings = append(r.Warnings, w.Error())
 		}
 		for o := range PortfolioOutputs {
-			out := output(o, merge(func(s *portfolioSketches) *stats.Sketch { return s.unrisked[i][o] }))
+			out := output(o, pr.prospects[i].unrisked[o])
 			out.Spec = pr.runs[i].specs[pr.outIdx[i][o]]
 			r.Unrisked = append(r.Unrisked, out)
-			risked := stats.NewMean()
-			for _, part := range pr.parts {
-				risked.Merge(part.risked[i][o])
-			}
-			r.RiskedMean = append(r.RiskedMean, risked.Value())
+			r.RiskedMean = append(r.RiskedMean, pr.prospects[i].risked[o].Value())
 			res.SumP90[o] += r.Share * out.Summary.P90
 			res.SumP10[o] += r.Share * out.Summary.P10
 		}
@@ -124,7 +120,7 @@ func (pw *portfolioWorker) keep(b, n int) {
 		}
 		for t := range n {
 			cols[k][start+t] = 0
-			if pw.success[i][t] < pr.c.chance[i] {
+			if pw.won[i][t] {
 				cols[k][start+t] = 1
 			}
 		}
