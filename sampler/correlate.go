@@ -9,6 +9,7 @@ import (
 	"math/rand/v2"
 	"slices"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
@@ -292,14 +293,11 @@ func ImanConover(cols [][]float64, target *mat.SymDense, rng *rand.Rand) error {
 		return nil
 	}
 
-	// Van der Waerden scores, exactly antisymmetric so that their mean is 0.
-	scores := make([]float64, n)
-	for i := range n / 2 {
-		z := distuv.UnitNormal.Quantile(float64(i+1) / float64(n+1))
-		scores[i], scores[n-1-i] = z, -z
-	}
+	sc := newICScratch(n, k)
+	defer icScratches.Put(sc)
+	scores := sc.scores
 	s := make([][]float64, k)
-	backing := make([]float64, n*k)
+	backing := sc.backing[:n*k]
 	for j := range s {
 		s[j] = backing[j*n : (j+1)*n : (j+1)*n]
 		copy(s[j], scores)
@@ -345,10 +343,8 @@ func ImanConover(cols [][]float64, target *mat.SymDense, rng *rand.Rand) error {
 	// row, which is itself random.
 	idxBits := bits.Len(uint(n - 1))
 	rowMask := uint64(1)<<idxBits - 1
-	t := make([]float64, n)
-	keys := make([]uint64, n)
-	vals := make([]uint64, n)
-	buf := make([]uint64, n)
+	t, keys, vals, buf := sc.t, sc.keys, sc.vals, sc.buf
+	defer func() { sc.keys, sc.vals, sc.buf = keys, vals, buf }() // the sorts swap them round
 	for j, col := range cols {
 		clear(t)
 		for i := 0; i <= j; i++ {
@@ -358,15 +354,54 @@ func ImanConover(cols [][]float64, target *mat.SymDense, rng *rand.Rand) error {
 			keys[i] = radix.Key(v)&^rowMask | uint64(i)
 		}
 		keys, buf = sortInPlace(keys, buf, idxBits/8)
+		sorted := true // a column drawn in stratum order needs no sort
 		for i, v := range col {
 			vals[i] = radix.Key(v)
+			sorted = sorted && (i == 0 || vals[i-1] <= vals[i])
 		}
-		vals, buf = sortInPlace(vals, buf, 0)
+		if !sorted {
+			vals, buf = sortInPlace(vals, buf, 0)
+		}
 		for r, key := range keys {
 			col[key&rowMask] = radix.Float(vals[r])
 		}
 	}
 	return nil
+}
+
+// icScratch is the scratch memory of an ImanConover of n trials, kept
+// for the next one in icScratches, with the n scores it starts from.
+type icScratch struct {
+	n               int
+	scores          []float64 // van der Waerden scores, exactly antisymmetric so that their mean is 0
+	backing, t      []float64
+	keys, vals, buf []uint64
+}
+
+var icScratches sync.Pool // *icScratch
+
+// newICScratch returns scratch for k columns of n trials, from
+// icScratches when it has some; scores are computed again only for a new
+// n.
+func newICScratch(n, k int) *icScratch {
+	sc, _ := icScratches.Get().(*icScratch)
+	if sc == nil {
+		sc = &icScratch{}
+	}
+	if sc.n != n {
+		sc.n = n
+		sc.scores = make([]float64, n)
+		for i := range n / 2 {
+			z := distuv.UnitNormal.Quantile(float64(i+1) / float64(n+1))
+			sc.scores[i], sc.scores[n-1-i] = z, -z
+		}
+		sc.t = make([]float64, n)
+		sc.keys, sc.vals, sc.buf = make([]uint64, n), make([]uint64, n), make([]uint64, n)
+	}
+	if len(sc.backing) < n*k {
+		sc.backing = make([]float64, n*k)
+	}
+	return sc
 }
 
 // sortInPlace sorts x on its bytes from … 7 (radix.Sort) and returns it

@@ -545,3 +545,17 @@ func BenchmarkImanConover(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkImanConoverPair rearranges one batch of two inputs, the
+// common case of a scenario with one rank correlation.
+func BenchmarkImanConoverPair(b *testing.B) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	cols := [][]float64{logNormalDraws(65536, rng), logNormalDraws(65536, rng)}
+	target := mustBuild(b, []string{"x", "y"}, []Pair{{"x", "y", 0.5}})
+	b.ReportAllocs()
+	for b.Loop() {
+		if err := ImanConover(cols, target, rng); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -123,7 +123,9 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 		if ranks != nil && ranks[j] != nil && p.corr == nil {
 			rk = ranks[j][:n]
 		}
-		if !stratified(rng, d, col, rk) && ranks != nil {
+		// Iman–Conover reorders the columns by ranks alone: they go to it
+		// in stratum order, the shuffle's draws being taken all the same.
+		if !stratified(rng, d, col, rk, p.corr == nil || n < 2) && ranks != nil {
 			ranks[j] = nil
 		}
 	}
@@ -142,11 +144,13 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 // (0, 1) and drawn in stratum order, then shuffled into a uniformly random
 // order. The quantiles are taken in stratum order, increasing, so that a
 // table-driven quantile walks its table in order rather than at random.
+// Unless permute, the shuffle's draws are taken from rng but col is left
+// in stratum order (for a caller that reorders it by ranks alone).
 //
 // If ranks is not nil (as long as col), stratified also writes the
 // doubled rank of each draw there (see FillRanked) and reports whether
 // it could: whether the quantiles do not decrease with the stratum.
-func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32) bool {
+func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32, permute bool) bool {
 	inv := 1 / float64(len(col))
 	// Each 64-bit draw gives the offsets of two strata, 32 bits each: p
 	// is then resolved to 2^−32 of a stratum, below 10⁻¹⁴ for a batch.
@@ -163,6 +167,10 @@ func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32) boo
 	ranked := ranks != nil && strataRanks(col, ranks)
 	if !ranked {
 		ranks = nil
+	}
+	if !permute {
+		fisherYates(rng, len(col), nil, nil)
+		return ranked
 	}
 	shuffle(rng, col, ranks)
 	return ranked
@@ -213,10 +221,14 @@ func quantiles(d Distribution, ps []float64) {
 // drawn by Lemire's multiply-and-reject method (Lemire 2019, "Fast random
 // integer generation in an interval"), exact, from one 32-bit half of a
 // 64-bit draw. y, if not nil, is put in the same order.
-func shuffle(rng *rand.PCG, x []float64, y []int32) {
+func shuffle(rng *rand.PCG, x []float64, y []int32) { fisherYates(rng, len(x), x, y) }
+
+// fisherYates is shuffle of n values, x and y; with x nil it only takes
+// the shuffle's draws from rng, and moves nothing.
+func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
 	var pool uint64 // unused 32-bit halves of a draw
 	have := 0
-	for i := len(x) - 1; i > 0; i-- {
+	for i := n - 1; i > 0; i-- {
 		bound := uint32(i + 1)
 		var m uint64
 		for {
@@ -229,6 +241,9 @@ func shuffle(rng *rand.PCG, x []float64, y []int32) {
 			if lo := uint32(m); lo >= bound || lo >= -bound%bound {
 				break
 			}
+		}
+		if x == nil {
+			continue
 		}
 		j := int(m >> 32)
 		x[i], x[j] = x[j], x[i]

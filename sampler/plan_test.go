@@ -124,9 +124,23 @@ func BenchmarkFill(b *testing.B) {
 	pert, _ := NewPERT(0.02, 0.06, 0.12)
 	nrm, _ := NewNormal(235, 12, 200, math.Inf(1))
 	dists := []Distribution{u, tri, pert, nrm}
-	for _, m := range []Method{LatinHypercube, Random} {
-		b.Run(m.String(), func(b *testing.B) {
-			p := NewPlan(dists, Config{Trials: 1_000_000, Seed: 1, Method: m})
+	corr, err := BuildCorrelation([]string{"area", "temp"}, []Pair{{"area", "temp", 0.5}})
+	if err != nil {
+		b.Fatal(err)
+	}
+	corr4 := mat.NewSymDense(4, nil) // area (1) and temperature (3) correlated
+	for i := range 4 {
+		corr4.SetSym(i, i, 1)
+	}
+	corr4.SetSym(1, 3, corr.At(0, 1))
+	for _, c := range []struct {
+		m    Method
+		corr *mat.SymDense
+		name string
+	}{{LatinHypercube, nil, "lhs"}, {Random, nil, "random"}, {LatinHypercube, corr4, "lhs-correlated"}, {Random, corr4, "random-correlated"}} {
+		m := c.m
+		b.Run(c.name, func(b *testing.B) {
+			p := NewPlan(dists, Config{Trials: 1_000_000, Seed: 1, Method: m, Correlation: c.corr})
 			cols := make([][]float64, len(dists))
 			for j := range cols {
 				cols[j] = make([]float64, BatchSize)
@@ -138,6 +152,47 @@ func BenchmarkFill(b *testing.B) {
 			}
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*BatchSize*len(dists)), "ns/draw")
 		})
+	}
+}
+
+// TestCorrelatedLHSOrder: a correlated Latin hypercube hands its columns
+// to Iman–Conover in stratum order, taking the shuffle's draws without
+// moving anything, since Iman–Conover reorders a column by ranks alone.
+// The draws must be bit for bit those of shuffling first: the columns
+// drawn, shuffled and rearranged by ImanConover on the same stream.
+func TestCorrelatedLHSOrder(t *testing.T) {
+	t.Parallel()
+	tri, _ := NewTriangular(3, 6, 14)
+	pert, _ := NewPERT(0.02, 0.06, 0.12)
+	nrm, _ := NewNormal(235, 12, 200, math.Inf(1))
+	dists := []Distribution{tri, pert, nrm}
+	target, err := BuildCorrelation([]string{"a", "b", "c"}, []Pair{{"a", "c", 0.5}, {"b", "c", -0.3}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const trials = BatchSize + 999
+	p := NewPlan(dists, Config{Trials: trials, Seed: 4, Method: LatinHypercube, Correlation: target})
+	for b := range p.Batches() {
+		_, n := p.BatchRange(b)
+		got, want := make([][]float64, len(dists)), make([][]float64, len(dists))
+		for j := range dists {
+			got[j], want[j] = make([]float64, n), make([]float64, n)
+		}
+		if err := p.Fill(b, got); err != nil {
+			t.Fatal(err)
+		}
+		rng := rand.NewPCG(4, batchStream|uint64(b))
+		for j, d := range dists {
+			stratified(rng, d, want[j], nil, true)
+		}
+		if err := ImanConover(want, p.corr, rand.New(rng)); err != nil { // the scores' correlation for target
+			t.Fatal(err)
+		}
+		for j := range dists {
+			if !slices.Equal(got[j], want[j]) {
+				t.Fatalf("batch %d, column %d: the draws differ from shuffling before Iman–Conover", b, j)
+			}
+		}
 	}
 }
 
