@@ -1,6 +1,7 @@
 package rockheat
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"runtime"
 	"slices"
@@ -312,9 +313,7 @@ func (pw *portfolioWorker) evaluate(b int, idx []int) error {
 	errs := make([]error, len(idx))
 	parallel(len(idx), pr.workers, func(a int) {
 		i := idx[a]
-		wk := pw.wks[i]
-		wk.borrow()
-		_, z, err := wk.batch(b, pw.given[i])
+		z, err := pw.prospectBatch(i, b)
 		errs[a] = err
 		pr.zero[i].Add(int64(z))
 	})
@@ -332,14 +331,26 @@ func (pw *portfolioWorker) evaluate(b int, idx []int) error {
 // drawn.
 func (pw *portfolioWorker) failed(b int, err error) error {
 	for i, wk := range pw.wks {
-		wk.borrow()
-		_, _, e := wk.batch(b, pw.given[i])
+		_, e := pw.prospectBatch(i, b)
 		wk.giveBack()
 		if e != nil {
 			return e
 		}
 	}
 	return err
+}
+
+// prospectBatch runs batch b of prospect i, in buffers it borrows if it
+// does not hold its own, and returns its trials without heat; an error
+// names the prospect.
+func (pw *portfolioWorker) prospectBatch(i, b int) (zeroHeat int, err error) {
+	wk := pw.wks[i]
+	wk.borrow()
+	_, z, err := wk.batch(b, pw.given[i])
+	if err != nil {
+		return 0, fmt.Errorf("prospect %q: %w", pw.pr.c.p.Prospects[i].Name, err)
+	}
+	return z, nil
 }
 
 // correlateOutcomes reorders the trials of the prospects in outcome

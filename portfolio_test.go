@@ -194,6 +194,69 @@ func TestPortfolioLentBuffers(t *testing.T) {
 	}
 }
 
+// overflowProspect is overflowModel with the four outputs a portfolio adds
+// up, each the draw x, +Inf above limit.
+type overflowProspect struct{ overflowModel }
+
+func (*overflowProspect) outputs() []OutputSpec {
+	var specs []OutputSpec
+	for _, name := range PortfolioOutputs {
+		specs = append(specs, OutputSpec{Name: name, Unit: "J", Doc: "x", Scale: 1})
+	}
+	return specs
+}
+func (m *overflowProspect) newEvaluator() evaluator {
+	e := &overflowEval{limit: m.Limit}
+	e.dst = dsts(m.fields(e))
+	return &overflowProspectEval{e}
+}
+
+type overflowProspectEval struct{ *overflowEval }
+
+func (e *overflowProspectEval) evaluate(n int, out [][]float64) (int, error) {
+	z, err := e.overflowEval.evaluate(n, out)
+	for _, col := range out[1:] {
+		copy(col[:n], out[0][:n])
+	}
+	return z, err
+}
+
+// TestPortfolioFirstFailingProspect: when prospects' trials fail, the
+// portfolio reports the first failing prospect's trial, whatever the order
+// in which they run (those in outcome correlations run first) and the
+// workers, and names the prospect: here f fails, and g, later in the list
+// and in an outcome correlation, fails too.
+func TestPortfolioFirstFailingProspect(t *testing.T) {
+	t.Parallel()
+	u, err := sampler.NewUniform(0.5, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	failing := func(name string, limit float64) Prospect {
+		return Prospect{Name: name, Chance: 0.5, Run: &Run{Title: name,
+			Model: &overflowProspect{overflowModel{X: Quantity{Dist: u}, Limit: limit}}}}
+	}
+	var msgs []string
+	for _, w := range []int{1, 2, 3} {
+		p := &Portfolio{Title: "failing", Trials: 2 * sampler.BatchSize, Seed: 9,
+			Prospects: []Prospect{normalProspect(t, "a", 0.5), failing("f", 0.9999), normalProspect(t, "b", 0.5),
+				failing("g", 0.99)},
+			Correlations: []ProspectCorrelation{{Prospects: [2]string{"a", "g"}, Rank: 0.5}}}
+		_, err := EstimatePortfolio(p, Options{Workers: w})
+		var te *TrialError
+		if !errors.As(err, &te) {
+			t.Fatalf("%d workers: err = %v, want a TrialError", w, err)
+		}
+		if !strings.HasPrefix(te.Inputs[0], "x = 0.9999") || !strings.HasPrefix(err.Error(), `prospect "f": trial `) {
+			t.Errorf("%d workers: %v; want prospect f's trial (x above 0.9999), not g's", w, te)
+		}
+		msgs = append(msgs, te.Error())
+	}
+	if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
+		t.Errorf("the error depends on the workers:\n%s", strings.Join(msgs, "\n"))
+	}
+}
+
 // TestPortfolioProblems checks the errors a portfolio can have.
 func TestPortfolioProblems(t *testing.T) {
 	t.Parallel()
