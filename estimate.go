@@ -2,6 +2,7 @@ package rockheat
 
 import (
 	"fmt"
+	"slices"
 	"sync"
 	"sync/atomic"
 
@@ -40,7 +41,10 @@ type run struct {
 	// sensRanks, if not nil, receives from the plan the doubled ranks of
 	// the sensitivity sample's draws, where it knows them (nil where not).
 	sensRanks [][]int32
-	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting
+	// mirror[j] is the output that output j mirrors (OutputSpec.Mirror),
+	// or −1: a mirror has no sketch, selector or ranks of its own.
+	mirror    []int
+	sketches  [][]*stats.Sketch // [worker][output], streaming and selecting; nil for a mirror
 	selection *selection        // exact order statistics without the trials, or nil
 	converged bool              // a run to a precision reached it
 	pool      []*worker         // the workers, by slot (see worker)
@@ -92,6 +96,7 @@ func newRun(c *checked, s *settings) *run { return newRunGiven(c, s, nil) }
 // caller, batch by batch (see worker.batch); they may not be correlated.
 func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 	r := &run{c: c, s: s, specs: c.run.Model.outputs()}
+	r.mirror = mirrors(r.specs)
 	var keep []int // indices, among the sampled inputs, of those drawn
 	for _, in := range c.inputs {
 		if in.fixed {
@@ -156,7 +161,9 @@ func (r *run) startSketches() {
 	for w := range r.sketches {
 		r.sketches[w] = make([]*stats.Sketch, len(r.specs))
 		for j := range r.specs {
-			r.sketches[w][j] = stats.NewSketch(stats.DefaultRelErr)
+			if r.mirror[j] < 0 {
+				r.sketches[w][j] = stats.NewSketch(stats.DefaultRelErr)
+			}
 		}
 	}
 }
@@ -217,17 +224,65 @@ func (r *run) outputs() ([]Output, error) {
 	}
 	outs := make([]Output, len(r.specs))
 	if r.sketches != nil {
-		parallel(len(r.specs), r.s.workers, func(j int) {
+		r.eachSummarised(func(j int) {
 			sk := mergeSketch(r.sketches, j)
 			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: sk.Quantiles(curveProbabilities)}
 		})
-		return outs, nil
+		return r.copyMirrors(outs), nil
 	}
-	parallel(len(r.specs), r.s.workers, func(j int) {
+	r.eachSummarised(func(j int) {
 		sum, c := stats.SummarizeAt(r.exactOut[j], r.s.stat, curveProbabilities)
 		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: c}
 	})
-	return outs, nil
+	return r.copyMirrors(outs), nil
+}
+
+// mirrors returns, for each output of specs, the index of the output it
+// mirrors (OutputSpec.Mirror), or −1. It panics on a mirror of no earlier
+// output, or of one in another unit or of other inputs: a mistake in a
+// model's outputs.
+func mirrors(specs []OutputSpec) []int {
+	m := make([]int, len(specs))
+	for j, sp := range specs {
+		m[j] = -1
+		if sp.Mirror == "" {
+			continue
+		}
+		i := slices.IndexFunc(specs[:j], func(o OutputSpec) bool { return o.Name == sp.Mirror && o.Mirror == "" })
+		if i < 0 {
+			panic(fmt.Sprintf("rockheat: output %s mirrors %q, which is not an earlier output", sp.Name, sp.Mirror))
+		}
+		if o := specs[i]; o.Unit != sp.Unit || o.Scale != sp.Scale || o.Offset != sp.Offset || !slices.Equal(o.DependsOn, sp.DependsOn) {
+			panic(fmt.Sprintf("rockheat: output %s mirrors %s, which differs in unit or inputs", sp.Name, sp.Mirror))
+		}
+		m[j] = i
+	}
+	return m
+}
+
+// eachSummarised calls f(j), on the workers, for every output that is not
+// a mirror.
+func (r *run) eachSummarised(f func(j int)) {
+	var own []int
+	for j, m := range r.mirror {
+		if m < 0 {
+			own = append(own, j)
+		}
+	}
+	parallel(len(own), r.s.workers, func(a int) { f(own[a]) })
+}
+
+// copyMirrors gives each mirror the figures of the output it mirrors,
+// under its own spec, and returns outs.
+func (r *run) copyMirrors(outs []Output) []Output {
+	for j, m := range r.mirror {
+		if m >= 0 {
+			outs[j] = outs[m]
+			outs[j].Spec = r.specs[j]
+			outs[j].Curve = slices.Clone(outs[m].Curve)
+		}
+	}
+	return outs
 }
 
 // warnings returns the problems that did not stop the run, each once.

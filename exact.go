@@ -10,8 +10,8 @@ import (
 // every output streams into its sketch and, for its exact order
 // statistics, into a stats.Selector bracketed from the first batch.
 type selection struct {
-	sels  []*stats.Selector       // [output]
-	parts [][]*stats.SelectorPart // [worker][output]
+	sels  []*stats.Selector       // [output], nil for a mirror
+	parts [][]*stats.SelectorPart // [worker][output], nil for a mirror
 }
 
 // selectExact runs an exact estimate that keeps no trial: batch 0 first,
@@ -33,12 +33,18 @@ func (r *run) selectExact() error {
 	_, n := r.plan.BatchRange(0)
 	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
 	// Worker 0's sketches hold batch 0 alone: the pilots, unsorted.
-	for j := range r.specs {
-		sel.sels = append(sel.sels, stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j]))
+	sel.sels = make([]*stats.Selector, len(r.specs)) // nil for a mirror
+	for j, m := range r.mirror {
+		if m < 0 {
+			sel.sels[j] = stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j])
+		}
 	}
 	for w := range sel.parts {
-		for _, s := range sel.sels {
-			sel.parts[w] = append(sel.parts[w], s.Part())
+		sel.parts[w] = make([]*stats.SelectorPart, len(r.specs))
+		for j, s := range sel.sels {
+			if s != nil {
+				sel.parts[w][j] = s.Part()
+			}
 		}
 	}
 	r.selection = sel
@@ -46,7 +52,9 @@ func (r *run) selectExact() error {
 	// and worker 1 adds batch 1, which it evaluated during the pilot.
 	first := []func(){func() {
 		for j, p := range sel.parts[0] {
-			p.AddSlice(r.sensOut[j][:n])
+			if p != nil {
+				p.AddSlice(r.sensOut[j][:n])
+			}
 		}
 	}}
 	if ahead == nil {
@@ -90,6 +98,9 @@ func (r *run) pilot() (*aheadBatch, error) {
 // sketches, selectors and counts.
 func (r *run) add(wk *worker, n, z int) {
 	for j := range r.specs {
+		if r.mirror[j] >= 0 {
+			continue // its values are those of the output it mirrors
+		}
 		if r.sketches != nil {
 			r.sketches[wk.w][j].AddSlice(wk.out[j])
 		}
@@ -115,7 +126,7 @@ func (r *run) add(wk *worker, n, z int) {
 func (r *run) selectedOutputs() ([]Output, bool) {
 	outs := make([]Output, len(r.specs))
 	var missed atomic.Bool
-	parallel(len(r.specs), r.s.workers, func(j int) {
+	r.eachSummarised(func(j int) {
 		sk := mergeSketch(r.sketches, j)
 		parts := make([]*stats.SelectorPart, len(r.selection.parts))
 		for w := range parts {
@@ -128,5 +139,5 @@ func (r *run) selectedOutputs() ([]Output, bool) {
 		}
 		outs[j] = Output{Spec: r.specs[j], Summary: sum, Curve: sk.Quantiles(curveProbabilities)}
 	})
-	return outs, !missed.Load()
+	return r.copyMirrors(outs), !missed.Load()
 }

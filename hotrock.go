@@ -149,12 +149,15 @@ func (m *HotRock) outputs() []OutputSpec {
 		{Name: "initial_thermal_power", Unit: "MWth", Doc: "initial thermal power", Scale: mega, DependsOn: hotRockInitial},
 	}
 	for _, y := range m.reportYears() {
-		dep := hotRockDecline
+		dep, mirror := hotRockDecline, ""
 		if y == 0 {
-			dep = hotRockInitial
+			// heatmodel.HotRock gives P(0) = InitialPower exactly, for
+			// both declines (TestHotRockPowerAtZero).
+			dep, mirror = hotRockInitial, "initial_thermal_power"
 		}
 		specs = append(specs, OutputSpec{Name: fmt.Sprintf("%s_%g_years", DeclineGroup, y), Unit: "MWth",
-			Doc: fmt.Sprintf("thermal power at year %g", y), Scale: mega, Group: DeclineGroup, Year: y, DependsOn: dep})
+			Doc: fmt.Sprintf("thermal power at year %g", y), Scale: mega, Group: DeclineGroup, Year: y, DependsOn: dep,
+			Mirror: mirror})
 	}
 	return append(specs,
 		OutputSpec{Name: "thermal_power", Unit: "MWth", Doc: "mean thermal power over the life", Scale: mega, DependsOn: hotRockMined},

@@ -78,6 +78,10 @@ type OutputSpec struct {
 	// DependsOn lists the Field.Base names of the inputs the output's
 	// formula uses: only they are ranked in its sensitivity.
 	DependsOn []string
+	// Mirror, if not empty, names an earlier output that this one equals
+	// in every trial, bit for bit (the hot-rock power at year 0 is the
+	// initial power): a run summarises that one and copies its figures.
+	Mirror string
 }
 
 // dependsOn reports whether the output of s depends on the input of base

@@ -41,6 +41,9 @@ func (r *run) stream() error {
 // interval narrower than the precision asked.
 func (r *run) settled() bool {
 	for _, sk := range mergeSketches(r.sketches) {
+		if sk == nil {
+			continue // a mirror
+		}
 		s := sk.Summary(r.s.stat)
 		for _, c := range []struct {
 			v  float64
@@ -54,11 +57,14 @@ func (r *run) settled() bool {
 	return true
 }
 
-// mergeSketches returns, per output, the merge of every worker's sketch.
+// mergeSketches returns, per output, the merge of every worker's sketch
+// (nil for a mirror, which has none).
 func mergeSketches(per [][]*stats.Sketch) []*stats.Sketch {
 	total := make([]*stats.Sketch, len(per[0]))
 	for j := range total {
-		total[j] = mergeSketch(per, j)
+		if per[0][j] != nil {
+			total[j] = mergeSketch(per, j)
+		}
 	}
 	return total
 }

@@ -49,7 +49,8 @@ func (r *run) sensitivity() []Sensitivity {
 		index[name] = k
 	}
 	out := make([]Sensitivity, len(r.specs))
-	parallel(len(r.specs), r.s.workers, func(j int) {
+	infls := make([][]stats.Influence, len(r.specs))
+	r.eachSummarised(func(j int) {
 		outRanks := ranked(sensOut[j])
 		// Only the inputs the output's formula uses are ranked.
 		var names []string
@@ -59,14 +60,20 @@ func (r *run) sensitivity() []Sensitivity {
 				names, ranks = append(names, r.names[k]), append(ranks, inRanks[k])
 			}
 		}
-		infl := stats.DoubledRankSensitivity(names, ranks, outRanks)
+		infls[j] = stats.DoubledRankSensitivity(names, ranks, outRanks)
+	})
+	for j, m := range r.mirror {
+		infl := infls[j]
+		if m >= 0 {
+			infl = infls[m] // the same values, so the same ranks
+		}
 		sens := Sensitivity{Output: r.specs[j].Name, Base: base[j]}
 		for _, f := range infl {
 			k := index[f.Input]
 			sens.Influences = append(sens.Influences, Influence{Influence: f, SwingLow: low[j][k], SwingHigh: high[j][k]})
 		}
 		out[j] = sens
-	})
+	}
 	return out
 }
 

@@ -545,6 +545,41 @@ func BenchmarkHotRock(b *testing.B) {
 	}
 }
 
+// TestHotRockPowerAtZero: at a report time of 0 the power is the initial
+// power bit for bit, for both declines (P(0) = E0/τ for the exponential
+// model; Q(0) = 1 for the fractures, docs/references.md), since a run
+// summarises the power at year 0 as a copy of the initial power.
+func TestHotRockPowerAtZero(t *testing.T) {
+	t.Parallel()
+	const n = 50
+	rnd := rand.New(rand.NewPCG(5, 6))
+	u := func(lo, hi float64) Column {
+		v := make([]float64, n)
+		for i := range v {
+			v[i] = lo + (hi-lo)*rnd.Float64()
+		}
+		return Vary(v)
+	}
+	for _, d := range []Decline{DeclineExponential, DeclineFractures} {
+		h := HotRock{
+			Area: u(1e6, 5e6), SurfaceTemp: u(280, 300), Gradient: u(0.025, 0.06),
+			MinTemp: u(340, 390), TopDepth: Const(0), MaxDepth: u(5000, 7000),
+			RockDensity: u(2500, 2900), RockHeatCapacity: u(800, 1000),
+			Flux: u(1e-7, 3e-6), WaterDensity: Const(1000), WaterHeatCapacity: Const(4180),
+			ConversionEfficiency: Const(0.1), CapacityFactor: Const(1), Life: Const(30 * secondsPerYear),
+			ReportTimes: []float64{0, 10 * secondsPerYear}, Decline: d,
+			FractureSpacing: u(50, 200), FlowPath: Const(800), RockConductivity: Const(2.8),
+		}
+		out := newHotRockOutputs(n, len(h.ReportTimes))
+		h.Evaluate(n, out)
+		for i := range n {
+			if out.PowerAt[0][i] != out.InitialPower[i] || out.InitialPower[i] == 0 {
+				t.Fatalf("%v decline, trial %d: P(0) = %v W, initial power %v W", d, i, out.PowerAt[0][i], out.InitialPower[i])
+			}
+		}
+	}
+}
+
 // TestHotRockFractureMapping checks how Evaluate maps a hot-rock trial onto
 // the parallel-fracture model, field by field, by hand for the case of
 // derivedHotRock with spacing S = 200 m, flow path L = 800 m and rock
