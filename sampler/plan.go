@@ -125,11 +125,11 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 		}
 		// Iman–Conover reorders the columns by ranks alone: they go to it
 		// in stratum order, the shuffle's draws being taken all the same.
-		if !stratified(rng, d, col, rk, p.corr == nil || n < 2) && ranks != nil {
+		if !stratified(rng, d, col, rk, !p.reorders(n)) && ranks != nil {
 			ranks[j] = nil
 		}
 	}
-	if p.corr != nil && n > 1 {
+	if p.reorders(n) {
 		sub := make([][]float64, len(cols))
 		for j := range cols {
 			sub[j] = cols[j][:n]
@@ -138,6 +138,11 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 	}
 	return nil
 }
+
+// reorders reports whether a batch of n trials goes through Iman–Conover,
+// which rearranges at least two columns of at least two draws (it leaves
+// fewer as they are).
+func (p *Plan) reorders(n int) bool { return p.corr != nil && len(p.dists) > 1 && n > 1 }
 
 // stratified fills col with a Latin hypercube sample of d: the quantiles
 // of (k + v_k)/n for each of the n = len(col) strata k, v_k uniform on

@@ -196,6 +196,30 @@ func TestCorrelatedLHSOrder(t *testing.T) {
 	}
 }
 
+// TestOneInputCorrelationShuffles: a plan of one input with a 1×1
+// correlation (BuildCorrelation of one name and no pairs) has nothing for
+// Iman–Conover to rearrange, so its draws are those of no correlation:
+// shuffled, not left in stratum order.
+func TestOneInputCorrelationShuffles(t *testing.T) {
+	t.Parallel()
+	u, _ := NewUniform(0, 1)
+	one, err := BuildCorrelation([]string{"x"}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const n = 1000
+	got, want := [][]float64{make([]float64, n)}, [][]float64{make([]float64, n)}
+	if err := NewPlan([]Distribution{u}, Config{Trials: n, Seed: 3, Method: LatinHypercube, Correlation: one}).Fill(0, got); err != nil {
+		t.Fatal(err)
+	}
+	if err := NewPlan([]Distribution{u}, Config{Trials: n, Seed: 3, Method: LatinHypercube}).Fill(0, want); err != nil {
+		t.Fatal(err)
+	}
+	if !slices.Equal(got[0], want[0]) || slices.IsSorted(got[0]) {
+		t.Error("a one-input correlated plan does not draw as an uncorrelated one")
+	}
+}
+
 // TestPlanRankCorrelation checks that a plan with a target rank
 // correlation achieves it as Spearman's coefficient (Pearson correlation
 // of ranks, gonum stat.Correlation) for LHS and random sampling, within
