@@ -132,7 +132,7 @@ func TimeConstant(z1, z2, rockDensity, rockHeatCapacity, flux, waterDensity, wat
 // (Armstead & Tester 1987, "Heat Mining"; renewable-energy textbooks).
 // The unit is that of e0 per second: W for e0 in J, W/m² for J/m².
 func HeatMiningPower(e0, tau, t float64) float64 {
-	if t == 0 {
+	if t == 0 && tau != 0 { // (at τ = 0 the formula gives NaN, kept)
 		return e0 / tau // e^(−0) = 1 exactly: the same value, without the exponential
 	}
 	return e0 / tau * math.Exp(-t/tau)

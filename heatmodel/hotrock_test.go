@@ -148,6 +148,9 @@ func TestHotRockPerTrialColumns(t *testing.T) {
 func TestHeatMiningPowerPoints(t *testing.T) {
 	t.Parallel()
 	rnd := rand.New(rand.NewPCG(3, 4))
+	if p := HeatMiningPower(1, 0, 0); !math.IsNaN(p) {
+		t.Errorf("P(0) with τ = 0 is %v, want NaN as the formula gives", p)
+	}
 	for range 100 {
 		e0, tau := 1e12+1e18*rnd.Float64(), 1e7+1e10*rnd.Float64()
 		if got, want := HeatMiningPower(e0, tau, 0), e0/tau*math.Exp(-0/tau); got != want {
