@@ -1,6 +1,7 @@
 package rockheat
 
 import (
+	"errors"
 	"sync/atomic"
 
 	"rockheat/stats"
@@ -14,29 +15,98 @@ type selection struct {
 	parts [][]*stats.SelectorPart // [worker][output], nil for a mirror
 }
 
-// selectExact runs an exact estimate that keeps no trial: batch 0 first,
-// then the others on the workers. Batch 0 is the sensitivity sample, held
-// in sensOut (the run is longer than keepOutputsLimit, so sensN is a whole
-// batch), and its sketches are the pilots of the outputs' selectors.
-// While batch 0 runs, a second worker draws and evaluates batch 1; once
-// the selectors exist, workers 0 and 1 add batches 0 and 1 to them (and
-// batch 1 to the sketches) before they run the rest. Should a selector's
+// selectExact runs an exact estimate that keeps no trial. Batch 0 is the
+// sensitivity sample, held in sensOut (the run is longer than
+// keepOutputsLimit, so sensN is a whole batch). Every output streams into
+// its sketch and into a stats.Selector bracketed from the sketches of a
+// pilot batch: batch 1 when there are two workers or more, which worker 1
+// draws while worker 0 draws batch 0 (the longer of the two: its draws and
+// their ranks are kept), else batch 0. The other batches start once the
+// selectors exist. Any pilot gives the same figures, the selectors' order
+// statistics being exact; it only sets the brackets. Should a selector's
 // brackets miss (a chance below 1e-11), the run is made again keeping
 // every output.
 func (r *run) selectExact() error {
 	r.startSketches()
 	r.planned = r.s.trials
-	ahead, err := r.pilot()
-	if err != nil {
-		return err
+	if r.s.workers < 2 || r.plan.Batches() < 2 {
+		if err := r.batches(0, 1); err != nil {
+			return err
+		}
+		r.selection = r.newSelection(0)
+		r.selection.addSensitivitySample(r)
+		return r.batches(1, r.plan.Batches())
 	}
-	_, n := r.plan.BatchRange(0)
-	sel := &selection{parts: make([][]*stats.SelectorPart, r.s.workers)}
-	// Worker 0's sketches hold batch 0 alone: the pilots, unsorted.
-	sel.sels = make([]*stats.Selector, len(r.specs)) // nil for a mirror
+	var (
+		ready      = make(chan struct{}) // closed once r.selection is set, or batch 1 failed
+		pilotErr   [2]error              // of batches 0 and 1
+		pilotFails atomic.Bool
+	)
+	wk0, wk1 := r.worker(0), r.worker(1) // made here: forBatches's goroutines may not make workers
+	first := []func(){
+		func() {
+			n, z, err := wk0.batch(0, nil)
+			if err != nil {
+				pilotErr[0] = err
+				pilotFails.Store(true)
+				return
+			}
+			r.addSketches(wk0)
+			<-ready
+			if r.selection != nil {
+				r.selection.addSensitivitySample(r)
+			}
+			r.count(wk0, n, z)
+		},
+		func() {
+			defer close(ready)
+			n, z, err := wk1.batch(1, nil)
+			if err != nil {
+				pilotErr[1] = err
+				pilotFails.Store(true)
+				return
+			}
+			r.addSketches(wk1)
+			r.selection = r.newSelection(1) // worker 1's sketches hold batch 1 alone
+			r.selection.add(wk1)
+			r.count(wk1, n, z)
+		},
+	}
+	for range r.s.workers - 2 {
+		first = append(first, func() { <-ready })
+	}
+	err := forBatches(r.s.workers, 2, r.plan.Batches(), first, func(w int) func(b int) error {
+		wk := r.worker(w)
+		return func(b int) error {
+			if pilotFails.Load() {
+				return errPilotFailed
+			}
+			n, z, err := wk.batch(b, nil)
+			if err == nil {
+				r.add(wk, n, z)
+			}
+			return err
+		}
+	})
+	for _, e := range pilotErr {
+		if e != nil {
+			return e
+		}
+	}
+	return err
+}
+
+// errPilotFailed stops the batches after a pilot batch failed; the pilot's
+// error is reported instead.
+var errPilotFailed = errors.New("rockheat: a pilot batch failed")
+
+// newSelection returns the selection of the run's outputs, bracketed from
+// worker w's sketches, which must hold one batch alone.
+func (r *run) newSelection(w int) *selection {
+	sel := &selection{sels: make([]*stats.Selector, len(r.specs)), parts: make([][]*stats.SelectorPart, r.s.workers)}
 	for j, m := range r.mirror {
 		if m < 0 {
-			sel.sels[j] = stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[0][j])
+			sel.sels[j] = stats.NewSketchSelector(r.s.trials, r.s.stat, r.sketches[w][j])
 		}
 	}
 	for w := range sel.parts {
@@ -47,67 +117,54 @@ func (r *run) selectExact() error {
 			}
 		}
 	}
-	r.selection = sel
-	// Before its first batch, worker 0 adds batch 0 to its selector parts
-	// and worker 1 adds batch 1, which it evaluated during the pilot.
-	first := []func(){func() {
-		for j, p := range sel.parts[0] {
-			if p != nil {
-				p.AddSlice(r.sensOut[j][:n])
-			}
+	return sel
+}
+
+// addSensitivitySample adds batch 0, held in the sensitivity sample, to
+// worker 0's selector parts.
+func (sel *selection) addSensitivitySample(r *run) {
+	_, n := r.plan.BatchRange(0)
+	for j, p := range sel.parts[0] {
+		if p != nil {
+			p.AddSlice(r.sensOut[j][:n])
 		}
-	}}
-	if ahead == nil {
-		return r.batchesAfter(first, 1, r.plan.Batches())
 	}
-	first = append(first, func() { r.add(ahead.wk, ahead.n, ahead.zero) })
-	return r.batchesAfter(first, 2, r.plan.Batches())
 }
 
-// aheadBatch is batch 1 of a selecting run, drawn and evaluated while the
-// pilot ran, and not yet added.
-type aheadBatch struct {
-	wk      *worker
-	n, zero int
-}
-
-// pilot runs batch 0 and adds it to the sketches; with a second worker and
-// a second batch, it draws and evaluates batch 1 meanwhile, and returns it
-// to be added once the selectors exist. It returns the error of batch 0,
-// else that of batch 1.
-func (r *run) pilot() (*aheadBatch, error) {
-	if r.s.workers < 2 || r.plan.Batches() < 2 {
-		return nil, r.batches(0, 1)
+// add adds a worker's batch to its selector parts.
+func (sel *selection) add(wk *worker) {
+	for j, p := range sel.parts[wk.w] {
+		if p != nil {
+			p.AddSlice(wk.out[j])
+		}
 	}
-	ahead := &aheadBatch{wk: r.worker(1)}
-	var aheadErr error
-	done := make(chan struct{})
-	go func() {
-		defer close(done)
-		ahead.n, ahead.zero, aheadErr = ahead.wk.batch(1, nil)
-	}()
-	err := r.batches(0, 1)
-	<-done
-	if err == nil {
-		err = aheadErr
-	}
-	return ahead, err
 }
 
 // add adds a worker's batch of n trials, z without heat, to the run's
 // sketches, selectors and counts.
 func (r *run) add(wk *worker, n, z int) {
-	for j := range r.specs {
-		if r.mirror[j] >= 0 {
-			continue // its values are those of the output it mirrors
-		}
-		if r.sketches != nil {
-			r.sketches[wk.w][j].AddSlice(wk.out[j])
-		}
-		if r.selection != nil {
-			r.selection.parts[wk.w][j].AddSlice(wk.out[j])
+	if r.sketches != nil {
+		r.addSketches(wk)
+	}
+	if r.selection != nil {
+		r.selection.add(wk)
+	}
+	r.count(wk, n, z)
+}
+
+// addSketches adds a worker's batch to its sketches, but for mirrors,
+// whose values are those of the output they mirror.
+func (r *run) addSketches(wk *worker) {
+	for j, sk := range r.sketches[wk.w] {
+		if sk != nil {
+			sk.AddSlice(wk.out[j])
 		}
 	}
+}
+
+// count adds a worker's batch of n trials, z without heat, to the run's
+// counts, and reports progress.
+func (r *run) count(wk *worker, n, z int) {
 	r.saturated.Add(int64(wk.ev.saturated()))
 	r.zero.Add(int64(z))
 	if r.s.Progress == nil {
