@@ -72,7 +72,8 @@ func (r *run) selectExact() error {
 			r.count(wk1, n, z)
 		},
 	}
-	for range r.s.workers - 2 {
+	// The other workers that batches 2 … will use wait for the selectors.
+	for range min(r.s.workers, r.plan.Batches()-2) - 2 {
 		first = append(first, func() { <-ready })
 	}
 	err := forBatches(r.s.workers, 2, r.plan.Batches(), first, func(w int) func(b int) error {
