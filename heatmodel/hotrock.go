@@ -264,9 +264,9 @@ func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
 		} else {
 			h.exponentialTrial(i, p, z1, z2, out)
 		}
-		life := h.Life.At(i)
-		out.MeanPower[i] = out.Recovered[i] / life
-		out.ElectricPower[i] = h.ConversionEfficiency.At(i) * (out.Recovered[i] / life) / h.CapacityFactor.At(i)
+		mean := out.Recovered[i] / h.Life.At(i)
+		out.MeanPower[i] = mean
+		out.ElectricPower[i] = h.ConversionEfficiency.At(i) * mean / h.CapacityFactor.At(i)
 	}
 	return zeroHeat
 }
