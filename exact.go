@@ -9,7 +9,8 @@ import (
 
 // selection is the state of an exact run that does not keep its trials:
 // every output streams into its sketch and, for its exact order
-// statistics, into a stats.Selector bracketed from the first batch.
+// statistics, into a stats.Selector bracketed from a pilot batch (see
+// selectExact).
 type selection struct {
 	sels  []*stats.Selector       // [output], nil for a mirror
 	parts [][]*stats.SelectorPart // [worker][output], nil for a mirror
@@ -29,7 +30,7 @@ type selection struct {
 func (r *run) selectExact() error {
 	r.startSketches()
 	r.planned = r.s.trials
-	if r.s.workers < 2 || r.plan.Batches() < 2 {
+	if r.s.workers < 2 || r.plan.Batches() < 2 { // (Estimate selects above 4 batches; the guard is for direct calls)
 		if err := r.batches(0, 1); err != nil {
 			return err
 		}
@@ -72,13 +73,10 @@ func (r *run) selectExact() error {
 			r.count(wk1, n, z)
 		},
 	}
-	// The other workers that batches 2 … will use wait for the selectors.
-	for range min(r.s.workers, r.plan.Batches()-2) - 2 {
-		first = append(first, func() { <-ready })
-	}
 	err := forBatches(r.s.workers, 2, r.plan.Batches(), first, func(w int) func(b int) error {
 		wk := r.worker(w)
 		return func(b int) error {
+			<-ready // the selectors exist (or batch 1 failed) before any other batch is added
 			if pilotFails.Load() {
 				return errPilotFailed
 			}

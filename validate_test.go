@@ -2,6 +2,8 @@ package rockheat
 
 import (
 	"errors"
+	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -263,8 +265,9 @@ func (e *overflowEval) evaluate(n int, out [][]float64) (int, error) {
 
 // TestNonFiniteOutputFailsTheRun: a trial whose output is not finite fails
 // the run, naming the trial and its inputs, and the same trial whatever the
-// number of workers (the lowest one): in the first batch, which a
-// selecting run runs first, and in the second, which it draws meanwhile.
+// number of workers (the lowest one): in the first batch and in the second,
+// the two a selecting run draws first (TestFailingTrialPlacement places
+// the failures batch by batch).
 func TestNonFiniteOutputFailsTheRun(t *testing.T) {
 	t.Parallel()
 	u, err := sampler.NewUniform(0.5, 1)
@@ -295,6 +298,77 @@ func TestNonFiniteOutputFailsTheRun(t *testing.T) {
 		}
 		if msgs[0] != msgs[1] || msgs[0] != msgs[2] {
 			t.Errorf("limit %g: the error depends on the workers:\n%s", c.limit, strings.Join(msgs, "\n"))
+		}
+	}
+}
+
+// failAtModel is overflowModel with its output +Inf where the draw x is
+// one of the values in fail, and x elsewhere.
+type failAtModel struct {
+	overflowModel
+	fail map[float64]bool
+}
+
+func (m *failAtModel) newEvaluator() evaluator {
+	e := &overflowEval{limit: math.Inf(1)}
+	e.dst = dsts(m.fields(e))
+	return &failAtEval{e, m.fail}
+}
+
+type failAtEval struct {
+	*overflowEval
+	fail map[float64]bool
+}
+
+func (e *failAtEval) evaluate(n int, out [][]float64) (int, error) {
+	z, err := e.overflowEval.evaluate(n, out)
+	for i, v := range out[0][:n] {
+		if e.fail[v] {
+			out[0][i] = inf
+		}
+	}
+	return z, err
+}
+
+// TestFailingTrialPlacement: however the failing trials fall among the
+// batches — in batch 0 (the sensitivity sample) or batch 1 (a selecting
+// run's pilot) alone, in both, in later batches, in a pilot and later —
+// a run reports the lowest failing trial, at any number of workers, in a
+// selecting run (400 000 trials) and in one that keeps its outputs
+// (200 000). The failing trials are chosen by index: their draws are
+// found from the plan the run makes.
+func TestFailingTrialPlacement(t *testing.T) {
+	t.Parallel()
+	u, err := sampler.NewUniform(0.5, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const bs = sampler.BatchSize
+	for _, trials := range []int{400_000, 200_000} {
+		plan := sampler.NewPlan([]sampler.Distribution{u}, sampler.Config{Trials: trials, Seed: 3, Method: sampler.Random})
+		draw := func(trial int) float64 { // 0-based
+			col := [][]float64{make([]float64, bs)}
+			if err := plan.Fill(trial/bs, col); err != nil {
+				t.Fatal(err)
+			}
+			return col[0][trial%bs]
+		}
+		for _, failing := range [][]int{{40000}, {bs + 10}, {bs + 10, 40000}, {3*bs + 7}, {2*bs + 5, 3*bs + 7},
+			{bs + 10, 2*bs + 1}, {2 * bs, 17}} {
+			fail := map[float64]bool{}
+			for _, k := range failing {
+				fail[draw(k)] = true
+			}
+			want := slices.Min(failing) + 1
+			for _, w := range []int{1, 2, 3, 5} {
+				run := &Run{Title: "placement", Trials: trials, Seed: 3, Sampling: sampler.Random,
+					Model: &failAtModel{overflowModel{X: Quantity{Dist: u}}, fail}}
+				_, err := Estimate(run, Options{Workers: w})
+				var te *TrialError
+				if !errors.As(err, &te) || te.Trial != want {
+					t.Errorf("%d trials, failing %v, %d workers: err = %v, want trial %d", trials, failing, w, err, want)
+				}
+			}
 		}
 	}
 }
