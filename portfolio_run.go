@@ -284,15 +284,15 @@ func (pw *portfolioWorker) batch(b int) error {
 	}
 	pw.startTotals(n)
 	step := max(1, pr.workers)
-	var run []int
+	var chunk []int // the prospects of lo … hi−1 that borrow their buffers
 	for lo := 0; lo < len(pw.wks); {
 		hi := lo
-		for run = run[:0]; hi < len(pw.wks) && len(run) < step; hi++ {
+		for chunk = chunk[:0]; hi < len(pw.wks) && len(chunk) < step; hi++ {
 			if !pw.held[hi] {
-				run = append(run, hi)
+				chunk = append(chunk, hi)
 			}
 		}
-		if err := pw.evaluate(b, run); err != nil {
+		if err := pw.evaluate(b, chunk); err != nil {
 			return pw.failed(b, err)
 		}
 		for i := lo; i < hi; i++ {
