@@ -12,21 +12,19 @@ import (
 
 // batches draws and evaluates batches [from, to) of the plan on the
 // workers.
-func (r *run) batches(from, to int) error { return r.batchesAfter(nil, from, to) }
+func (r *run) batches(from, to int) error { return forBatches(r.s.workers, from, to, nil, r.batchWork) }
 
-// batchesAfter is batches with first[w] called by worker w on its
-// goroutine before it takes a batch (see forBatches).
-func (r *run) batchesAfter(first []func(), from, to int) error {
-	return forBatches(r.s.workers, from, to, first, func(w int) func(b int) error {
-		wk := r.worker(w)
-		return func(b int) error {
-			n, z, err := wk.batch(b, nil)
-			if err == nil {
-				r.add(wk, n, z)
-			}
-			return err
+// batchWork returns worker w's batch function for forBatches: it draws
+// and evaluates a batch and adds it to the run.
+func (r *run) batchWork(w int) func(b int) error {
+	wk := r.worker(w)
+	return func(b int) error {
+		n, z, err := wk.batch(b, nil)
+		if err == nil {
+			r.add(wk, n, z)
 		}
-	})
+		return err
+	}
 }
 
 // forBatches runs batches [from, to) on at most workers goroutines, and

@@ -38,61 +38,72 @@ func (r *run) selectExact() error {
 		r.selection.addSensitivitySample(r)
 		return r.batches(1, r.plan.Batches())
 	}
-	var (
-		ready      = make(chan struct{}) // closed once r.selection is set, or batch 1 failed
-		pilotErr   [2]error              // of batches 0 and 1
-		pilotFails atomic.Bool
-	)
+	p := &pilots{ready: make(chan struct{})}
+	err := forBatches(r.s.workers, 2, r.plan.Batches(), r.pilotHooks(p), func(w int) func(b int) error {
+		work := r.batchWork(w)
+		return func(b int) error {
+			<-p.ready // the selectors exist (or batch 1 failed) before any other batch is added
+			if p.fails.Load() {
+				return errPilotFailed
+			}
+			return work(b)
+		}
+	})
+	for _, e := range p.err {
+		if e != nil {
+			return e
+		}
+	}
+	return err
+}
+
+// pilots is the state of a selecting run's batches 0 and 1.
+type pilots struct {
+	ready chan struct{} // closed once r.selection is set, or batch 1 failed
+	err   [2]error      // of batches 0 and 1
+	fails atomic.Bool   // whether either failed
+}
+
+// pilotHooks returns forBatches's first hooks for workers 0 and 1, which
+// run batches 0 and 1: worker 1 builds the selectors from its batch and
+// closes p.ready; worker 0 adds batch 0 to them once they exist.
+func (r *run) pilotHooks(p *pilots) []func() {
 	wk0, wk1 := r.worker(0), r.worker(1) // made here: forBatches's goroutines may not make workers
-	first := []func(){
+	// pilot runs batch b on wk and adds it to wk's sketches; a failure is
+	// kept in p and stops the other batches.
+	pilot := func(wk *worker, b int) (n, z int, ok bool) {
+		n, z, err := wk.batch(b, nil)
+		if err != nil {
+			p.err[b] = err
+			p.fails.Store(true)
+			return 0, 0, false
+		}
+		r.addSketches(wk)
+		return n, z, true
+	}
+	return []func(){
 		func() {
-			n, z, err := wk0.batch(0, nil)
-			if err != nil {
-				pilotErr[0] = err
-				pilotFails.Store(true)
+			n, z, ok := pilot(wk0, 0)
+			if !ok {
 				return
 			}
-			r.addSketches(wk0)
-			<-ready
+			<-p.ready
 			if r.selection != nil {
 				r.selection.addSensitivitySample(r)
 			}
 			r.count(wk0, n, z)
 		},
 		func() {
-			defer close(ready)
-			n, z, err := wk1.batch(1, nil)
-			if err != nil {
-				pilotErr[1] = err
-				pilotFails.Store(true)
+			defer close(p.ready)
+			n, z, ok := pilot(wk1, 1)
+			if !ok {
 				return
 			}
-			r.addSketches(wk1)
 			r.selection = r.newSelection(1) // worker 1's sketches hold batch 1 alone
 			r.selection.add(wk1)
 			r.count(wk1, n, z)
 		},
 	}
-	err := forBatches(r.s.workers, 2, r.plan.Batches(), first, func(w int) func(b int) error {
-		wk := r.worker(w)
-		return func(b int) error {
-			<-ready // the selectors exist (or batch 1 failed) before any other batch is added
-			if pilotFails.Load() {
-				return errPilotFailed
-			}
-			n, z, err := wk.batch(b, nil)
-			if err == nil {
-				r.add(wk, n, z)
-			}
-			return err
-		}
-	})
-	for _, e := range pilotErr {
-		if e != nil {
-			return e
-		}
-	}
-	return err
 }
 
 // errPilotFailed stops the batches after a pilot batch failed; the pilot's
