@@ -82,21 +82,14 @@ func TestSensitivityRanksFromPlan(t *testing.T) {
 	for _, trials := range []int{100_000, 400_000} {
 		var got [2][]Sensitivity
 		for k, sort := range []bool{false, true} {
-			c, err := demoRun(t).resolve()
-			if err != nil {
-				t.Fatal(err)
-			}
-			set, err := resolveOptions(c, Options{Trials: trials})
-			if err != nil {
-				t.Fatal(err)
-			}
-			r := newRun(c, set)
+			r, set := newDemoRun(t, trials)
 			if r.sensRanks == nil {
 				t.Fatalf("%d trials: the demo's run takes no ranks from its plan", trials)
 			}
 			if sort {
 				r.sensRanks = nil
 			}
+			var err error
 			if set.keepsOutputs() {
 				err = r.keepExact()
 			} else {

@@ -52,8 +52,9 @@ func demoRun(tb testing.TB) *Run {
 	return &Run{Title: "demo, built in Go", Trials: 100_000, Seed: 12345, Model: m}
 }
 
-// newFloorRun sets up the floor of the demo at n trials.
-func newFloorRun(tb testing.TB, n int) *floorRun {
+// newDemoRun returns the run state of the demo at n trials, and its
+// settings.
+func newDemoRun(tb testing.TB, n int) (*run, *settings) {
 	tb.Helper()
 	c, err := demoRun(tb).resolve()
 	if err != nil {
@@ -63,7 +64,13 @@ func newFloorRun(tb testing.TB, n int) *floorRun {
 	if err != nil {
 		tb.Fatal(err)
 	}
-	r := newRun(c, set)
+	return newRun(c, set), set
+}
+
+// newFloorRun sets up the floor of the demo at n trials.
+func newFloorRun(tb testing.TB, n int) *floorRun {
+	tb.Helper()
+	r, set := newDemoRun(tb, n)
 	f := &floorRun{plan: r.plan, col: map[string]int{}, workers: set.workers}
 	for j, in := range r.sampled {
 		f.col[in.Base] = j

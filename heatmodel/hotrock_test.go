@@ -141,6 +141,18 @@ func TestHotRockPerTrialColumns(t *testing.T) {
 	}
 }
 
+// uniformColumns returns a maker of columns of n values drawn uniformly
+// on [lo, hi) from rnd, for trials of random inputs.
+func uniformColumns(n int, rnd *rand.Rand) func(lo, hi float64) Column {
+	return func(lo, hi float64) Column {
+		v := make([]float64, n)
+		for i := range v {
+			v[i] = lo + (hi-lo)*rnd.Float64()
+		}
+		return Vary(v)
+	}
+}
+
 // TestHeatMiningPowerPoints checks P(t) = (E0/τ)·e^(−t/τ) (Armstead &
 // Tester 1987, docs/references.md) at points with analytic values: P(0) =
 // E0/τ exactly (the shortcut that skips the exponential must give the
@@ -200,14 +212,7 @@ func TestHeatMiningEnergyBalance(t *testing.T) {
 	}
 
 	const n = 20
-	rnd := rand.New(rand.NewPCG(1, 2))
-	u := func(lo, hi float64) Column {
-		v := make([]float64, n)
-		for i := range v {
-			v[i] = lo + (hi-lo)*rnd.Float64()
-		}
-		return Vary(v)
-	}
+	u := uniformColumns(n, rand.New(rand.NewPCG(1, 2)))
 	const life = 30 * secondsPerYear
 	h := HotRock{
 		Area: u(1e6, 5e6), SurfaceTemp: u(280, 300), Gradient: u(0.025, 0.06),
@@ -555,14 +560,7 @@ func BenchmarkHotRock(b *testing.B) {
 func TestHotRockPowerAtZero(t *testing.T) {
 	t.Parallel()
 	const n = 50
-	rnd := rand.New(rand.NewPCG(5, 6))
-	u := func(lo, hi float64) Column {
-		v := make([]float64, n)
-		for i := range v {
-			v[i] = lo + (hi-lo)*rnd.Float64()
-		}
-		return Vary(v)
-	}
+	u := uniformColumns(n, rand.New(rand.NewPCG(5, 6)))
 	for _, d := range []Decline{DeclineExponential, DeclineFractures} {
 		h := HotRock{
 			Area: u(1e6, 5e6), SurfaceTemp: u(280, 300), Gradient: u(0.025, 0.06),

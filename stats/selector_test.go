@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"cmp"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -107,15 +106,7 @@ func TestSketchSelectorBrackets(t *testing.T) {
 			d := 7*math.Sqrt(p*(1-p)/m) + 2/m
 			want = append(want, [2]uint64{keys[int(math.Floor((p-d)*(m-1)))], keys[int(math.Ceil((p+d)*(m-1)))]})
 		}
-		slices.SortFunc(want, func(a, b [2]uint64) int { return cmp.Compare(a[0], b[0]) })
-		merged := want[:0]
-		for _, b := range want {
-			if k := len(merged); k > 0 && b[0] <= merged[k-1][1] {
-				merged[k-1][1] = max(merged[k-1][1], b[1])
-				continue
-			}
-			merged = append(merged, b)
-		}
+		merged := mergeBrackets(want)
 		if len(got) != len(merged) {
 			t.Errorf("%s: %d brackets, want %d: %v", name, len(got), len(merged), got)
 			continue
