@@ -68,10 +68,10 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 	// Look-ups from a value's bin to its wanted group (number + 1, or 0):
 	// dense over the span of wanted bins of each sign.
 	var pos, neg wantSpan
-	var special [4]int32
+	var special [groupKinds]int32
 	for gi, g := range groups {
 		switch {
-		case g.kind != 0:
+		case g.kind != binGroup:
 			special[g.kind] = int32(gi + 1)
 		case g.neg:
 			neg.cover(g.index)
@@ -82,7 +82,7 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 	pos.make()
 	neg.make()
 	for gi, g := range groups {
-		if g.kind == 0 {
+		if g.kind == binGroup {
 			if g.neg {
 				neg.set(g.index, int32(gi+1))
 			} else {
@@ -99,11 +99,11 @@ func (s *Sketch) orderStatistics(x []float64, ranks []int) map[int]float64 {
 		case v < 0 && v >= -math.MaxFloat64:
 			gi = neg.get(s.tab.index(-v))
 		case v == 0:
-			gi = special[1]
+			gi = special[zeroGroup]
 		case v > 0:
-			gi = special[3]
+			gi = special[posInfGroup]
 		case v < 0:
-			gi = special[2]
+			gi = special[negInfGroup]
 		}
 		if gi > 0 {
 			vals[gi-1] = append(vals[gi-1], v)

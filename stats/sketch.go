@@ -358,11 +358,11 @@ func (s *Sketch) rankGroups(ranks []int, f func(i int, g group)) int {
 // whole groups splits no group.
 func (s *Sketch) keyRange(g group) [2]uint64 {
 	switch g.kind {
-	case 1:
+	case zeroGroup:
 		return [2]uint64{radix.Key(math.Copysign(0, -1)), radix.Key(0)}
-	case 2:
+	case negInfGroup:
 		return [2]uint64{radix.Key(math.Inf(-1)), radix.Key(math.Inf(-1))}
-	case 3:
+	case posInfGroup:
 		return [2]uint64{radix.Key(math.Inf(1)), radix.Key(math.Inf(1))}
 	}
 	lo, hi := s.tab.bitRange(g.index) // of |x|: lo ≤ bits(|x|) < hi
@@ -420,13 +420,24 @@ func (s *Sketch) Quantiles(qs []float64) []float64 {
 type group struct {
 	neg   bool // a negative bin (by |x|), rather than a positive one
 	index int  // bin index
-	kind  int8 // 0 a bin, 1 zeros, 2 −Inf, 3 +Inf
+	kind  groupKind
 }
+
+// groupKind tells a bin from the groups of the values no bin holds.
+type groupKind int8
+
+const (
+	binGroup    groupKind = iota // a bin: neg and index say which
+	zeroGroup                    // both zeros
+	negInfGroup                  // −Inf
+	posInfGroup                  // +Inf
+	groupKinds                   // the number of kinds
+)
 
 // groups calls f with every group that holds values and its count, in
 // ascending order of value, until f returns false.
 func (s *Sketch) groups(f func(g group, c uint64) bool) {
-	if s.negInf > 0 && !f(group{kind: 2}, s.negInf) {
+	if s.negInf > 0 && !f(group{kind: negInfGroup}, s.negInf) {
 		return
 	}
 	more := true
@@ -434,7 +445,7 @@ func (s *Sketch) groups(f func(g group, c uint64) bool) {
 		more = f(group{neg: true, index: i}, c)
 		return more
 	})
-	if !more || (s.zero > 0 && !f(group{kind: 1}, s.zero)) {
+	if !more || (s.zero > 0 && !f(group{kind: zeroGroup}, s.zero)) {
 		return
 	}
 	s.pos.walk(false, func(i int, c uint64) bool {
@@ -442,18 +453,18 @@ func (s *Sketch) groups(f func(g group, c uint64) bool) {
 		return more
 	})
 	if more && s.posInf > 0 {
-		f(group{kind: 3}, s.posInf)
+		f(group{kind: posInfGroup}, s.posInf)
 	}
 }
 
 // value returns the representative value of group g.
 func (s *Sketch) value(g group) float64 {
 	switch g.kind {
-	case 1:
+	case zeroGroup:
 		return 0
-	case 2:
+	case negInfGroup:
 		return math.Inf(-1)
-	case 3:
+	case posInfGroup:
 		return math.Inf(1)
 	}
 	if g.neg {
