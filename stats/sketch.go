@@ -11,7 +11,7 @@ import (
 )
 
 // DefaultRelErr is the relative error bound of rockheat's sketches: bins
-// 2·10⁻⁴ wide in relative terms, 11 513 bins (92 kB) per decade of values.
+// 2·10⁻⁴ wide in relative terms, 11 513 bins (46 kB) per decade of values.
 const DefaultRelErr = 1e-4
 
 // Sketch is a bounded-memory, mergeable summary of a stream of values, for
@@ -36,9 +36,10 @@ const DefaultRelErr = 1e-4
 // commutative and associative, and a sketch's results are bit-identical
 // whatever the order in which values were added and sketches merged.
 //
-// Memory: 8 bytes per bin, in pages of 256 bins allocated where values
+// Memory: 4 bytes per bin (32-bit counts, folded into 64-bit ones every
+// 2³² − 1 values), in pages of 256 bins allocated where values
 // fall: at most about ln(max/min)/(2α) bins per sign for the range of
-// magnitudes seen (92 kB per decade at α = 10⁻⁴), far fewer when values
+// magnitudes seen (46 kB per decade at α = 10⁻⁴), far fewer when values
 // are spread thinly over many decades; a page table of 8 bytes a page of
 // the range; and 66 kB of sums (1.7 kB of
 // limbs and 64 kB of accumulators, one per binary exponent); Bins reports
@@ -58,6 +59,7 @@ type Sketch struct {
 	negInf   uint64
 	nan      uint64
 	n        uint64 // values other than NaN
+	low      uint64 // bound on the bins' 32-bit counts (see reserve)
 	min, max float64
 	mom      *moments
 }
@@ -88,12 +90,14 @@ func (s *Sketch) RelErr() float64 { return s.tab.relErr }
 // N returns the number of values added, NaNs excluded.
 func (s *Sketch) N() int { return int(s.n) }
 
-// Bins returns the number of histogram bins allocated, each of 8 bytes.
+// Bins returns the number of histogram bins allocated, each of 4 bytes
+// (and 8 more for a bin's page once 2³² values have been added).
 func (s *Sketch) Bins() int { return (s.pos.used + s.neg.used) * pageSize }
 
 // Add adds the value x. NaN is counted apart and excluded from every
 // statistic, as in Summarize.
 func (s *Sketch) Add(x float64) {
+	s.reserve(1)
 	switch {
 	case x > 0:
 		if x > math.MaxFloat64 {
@@ -123,6 +127,25 @@ func (s *Sketch) Add(x float64) {
 	s.mom.add(x)
 }
 
+// lowMax is the largest 32-bit count of a bin.
+const lowMax = 1<<32 - 1
+
+// reserve makes room for k ≤ lowMax more values in the bins' 32-bit
+// counts: it keeps low, the number of values added since the counts
+// were last folded into the 64-bit ones (or a bound on it after Merge),
+// at most lowMax, folding first if k more would pass it. No count can
+// then wrap round, so adding a value needs no test of its count. (Add
+// reserves for itself, so a value that addRun hands to Add is reserved
+// twice, which only brings the next fold sooner.)
+func (s *Sketch) reserve(k int) {
+	if s.low+uint64(k) > lowMax {
+		s.pos.fold()
+		s.neg.fold()
+		s.low = 0
+	}
+	s.low += uint64(k)
+}
+
 // keyLess reports whether a comes before b in the order of radix.Key,
 // for values that are not NaN: a < b, or −0 before +0. With it the
 // extremes do not depend on the order of the values.
@@ -134,6 +157,7 @@ func keyLess(a, b float64) bool {
 func (s *Sketch) AddSlice(xs []float64) {
 	for len(xs) > 0 {
 		k := min(len(xs), s.mom.room())
+		s.reserve(k)
 		s.addRun(xs[:k])
 		s.mom.counted(k)
 		xs = xs[k:]
@@ -223,6 +247,7 @@ func (s *Sketch) Merge(o *Sketch) {
 	s.negInf += o.negInf
 	s.nan += o.nan
 	s.n += o.n
+	s.low = min(s.low+o.low, lowMax) // merge carried any sum past lowMax
 	if keyLess(o.min, s.min) {
 		s.min = o.min
 	}
@@ -480,17 +505,22 @@ func (s *Sketch) value(g group) float64 {
 // the bins of page number first+k, bin i being in page i>>pageBits at
 // i&(pageSize−1); nil where no value fell. Page numbers are the same for
 // every sketch, so pages merge one to one.
+//
+// A page's counts are 32-bit, which halves the memory, and the cache, that
+// the bins take; Sketch.reserve folds them into wide, 64-bit counts, before
+// any could wrap round, and a bin's count is its page's plus its wide one.
 type bins struct {
-	first int        // page number of pages[0]
-	pages []*binPage // the page table; nil entries are empty pages
-	used  int        // pages allocated
+	first int                       // page number of pages[0]
+	pages []*binPage                // the page table; nil entries are empty pages
+	used  int                       // pages allocated
+	wide  map[int]*[pageSize]uint64 // page number → counts folded out of the page
 }
 
 const pageBits = 8
 
 const pageSize = 1 << pageBits
 
-type binPage [pageSize]uint64
+type binPage [pageSize]uint32
 
 func (b *bins) inc(i int) { b.page(i >> pageBits)[i&(pageSize-1)]++ }
 
@@ -525,15 +555,52 @@ func (b *bins) page(p int) *binPage {
 	return b.pages[k]
 }
 
-// merge adds the counts of o to b.
+// widePage returns the wide counts of page p, allocating them if need be.
+func (b *bins) widePage(p int) *[pageSize]uint64 {
+	w := b.wide[p]
+	if w == nil {
+		if b.wide == nil {
+			b.wide = map[int]*[pageSize]uint64{}
+		}
+		w = new([pageSize]uint64)
+		b.wide[p] = w
+	}
+	return w
+}
+
+// fold moves every page's 32-bit counts into its wide counts.
+func (b *bins) fold() {
+	for k, pg := range b.pages {
+		if pg == nil {
+			continue
+		}
+		w := b.widePage(b.first + k)
+		for j, c := range pg {
+			w[j] += uint64(c)
+		}
+		*pg = binPage{}
+	}
+}
+
+// merge adds the counts of o to b; a 32-bit sum that wraps round carries
+// 2³² into the wide count.
 func (b *bins) merge(o *bins) {
 	for k, op := range o.pages {
 		if op == nil {
 			continue
 		}
-		pg := b.page(o.first + k)
+		p := o.first + k
+		pg := b.page(p)
 		for j, c := range op {
-			pg[j] += c
+			if pg[j] += c; pg[j] < c {
+				b.widePage(p)[j] += 1 << 32
+			}
+		}
+	}
+	for p, ow := range o.wide {
+		w := b.widePage(p)
+		for j, c := range ow {
+			w[j] += c
 		}
 	}
 }
@@ -552,12 +619,17 @@ func (b *bins) walk(down bool, f func(i int, c uint64) bool) {
 			continue
 		}
 		base := (b.first + k) << pageBits
+		w := b.wide[b.first+k]
 		for jj := range pg {
 			j := jj
 			if down {
 				j = pageSize - 1 - jj
 			}
-			if c := pg[j]; c != 0 && !f(base+j, c) {
+			c := uint64(pg[j])
+			if w != nil {
+				c += w[j]
+			}
+			if c != 0 && !f(base+j, c) {
 				return
 			}
 		}

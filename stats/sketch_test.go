@@ -402,3 +402,92 @@ func TestSketchQuantilesOneWalk(t *testing.T) {
 		}
 	}
 }
+
+// binCounts returns every bin's count, positive bins at their index and
+// negative ones at −1 − index, read through the walk that every order
+// statistic uses.
+func binCounts(s *Sketch) map[int]uint64 {
+	m := map[int]uint64{}
+	s.pos.walk(false, func(i int, c uint64) bool { m[i] = c; return true })
+	s.neg.walk(false, func(i int, c uint64) bool { m[-1-i] = c; return true })
+	return m
+}
+
+// TestSketchFoldMidStream: the 32-bit counts are folded into the wide
+// ones when reserve would pass lowMax (after 2³² − 1 values, forced here
+// by setting low), and a fold in the middle of a stream changes nothing:
+// the summary, quantiles and bin counts are those of the same values
+// added without it, and a merge of a folded sketch gives the same as one
+// of an unfolded sketch.
+func TestSketchFoldMidStream(t *testing.T) {
+	t.Parallel()
+	x := normal(100000, 3, 2, 9) // both signs
+	plain := NewSketchOf(x)
+	folded := NewSketch(DefaultRelErr)
+	folded.AddSlice(x[:40000])
+	folded.low = lowMax - 10 // as if 2³² − 11 values had been added since the last fold
+	folded.AddSlice(x[40000:70000])
+	if folded.pos.wide == nil || folded.neg.wide == nil || folded.low != 30000 {
+		t.Fatalf("no fold: wide %v/%v, low %d", folded.pos.wide != nil, folded.neg.wide != nil, folded.low)
+	}
+	for _, v := range x[70000:] {
+		folded.Add(v)
+	}
+	if got, want := folded.Summary(DefaultOptions), plain.Summary(DefaultOptions); !sameSummary(got, want) {
+		t.Errorf("folded sketch: %+v\nwant %+v", got, want)
+	}
+	if got, want := binCounts(folded), binCounts(plain); !reflect.DeepEqual(got, want) {
+		t.Error("bin counts differ after a fold")
+	}
+	qs := []float64{0, 0.01, 0.1, 0.5, 0.9, 0.99, 1}
+	if got, want := folded.Quantiles(qs), plain.Quantiles(qs); !reflect.DeepEqual(got, want) {
+		t.Errorf("quantiles %v, want %v", got, want)
+	}
+	a, b := NewSketch(DefaultRelErr), NewSketch(DefaultRelErr)
+	a.Merge(folded)
+	b.Merge(plain)
+	if !reflect.DeepEqual(binCounts(a), binCounts(b)) || !sameSummary(a.Summary(DefaultOptions), b.Summary(DefaultOptions)) {
+		t.Error("merging a folded sketch differs from merging an unfolded one")
+	}
+}
+
+// TestSketchCountsPast32Bits: counts past 2³² are kept exactly, by the
+// fold (a bin at 2³² − 2 given 3 more values) and by the carry of Merge
+// (two bins at 2³¹ + 5 and 2³¹ + 7 and a folded wide count). The large
+// counts are set by hand, as adding 2³² values would take a minute.
+func TestSketchCountsPast32Bits(t *testing.T) {
+	t.Parallel()
+	const v = 2.5
+	s := NewSketch(DefaultRelErr)
+	s.Add(v)
+	i := s.tab.index(v)
+	pg := s.pos.pages[i>>pageBits-s.pos.first]
+	pg[i&(pageSize-1)] = lowMax - 1
+	s.low = lowMax - 1
+	s.AddSlice([]float64{v, v, v})
+	if got, want := binCounts(s)[i], uint64(1<<32+1); got != want {
+		t.Errorf("after a fold: count %d, want %d", got, want)
+	}
+
+	a, b := NewSketch(DefaultRelErr), NewSketch(DefaultRelErr)
+	a.Add(v)
+	b.Add(v)
+	b.Add(-v)
+	a.pos.pages[i>>pageBits-a.pos.first][i&(pageSize-1)] = 1<<31 + 5
+	b.pos.pages[i>>pageBits-b.pos.first][i&(pageSize-1)] = 1<<31 + 7
+	b.neg.fold() // −v's count now wide
+	a.low, b.low = 1<<31+5, 1<<31+8
+	a.Merge(b)
+	a.Merge(s)
+	want := map[int]uint64{i: 1<<32 + 12 + 1<<32 + 1, -1 - i: 1}
+	if got := binCounts(a); !reflect.DeepEqual(got, want) {
+		t.Errorf("after merges: counts %v, want %v", got, want)
+	}
+	if a.low != lowMax {
+		t.Errorf("merged bound on the 32-bit counts %d, want it capped at %d", a.low, uint64(lowMax))
+	}
+	a.Add(v) // the capped bound folds before this value
+	if got := binCounts(a)[i]; got != want[i]+1 || a.low != 1 {
+		t.Errorf("after one more value: count %d (want %d), low %d (want 1)", got, want[i]+1, a.low)
+	}
+}
