@@ -36,8 +36,8 @@ const DefaultRelErr = 1e-4
 // commutative and associative, and a sketch's results are bit-identical
 // whatever the order in which values were added and sketches merged.
 //
-// Memory: 4 bytes per bin (32-bit counts, folded into 64-bit ones every
-// 2³² − 1 values), in pages of 256 bins allocated where values
+// Memory: 4 bytes per bin (32-bit counts, folded into 64-bit ones before
+// one could wrap round), in pages of 256 bins allocated where values
 // fall: at most about ln(max/min)/(2α) bins per sign for the range of
 // magnitudes seen (46 kB per decade at α = 10⁻⁴), far fewer when values
 // are spread thinly over many decades; a page table of 8 bytes a page of
