@@ -91,13 +91,20 @@ func (s *Sketch) RelErr() float64 { return s.tab.relErr }
 func (s *Sketch) N() int { return int(s.n) }
 
 // Bins returns the number of histogram bins allocated, each of 4 bytes
-// (and 8 more for a bin's page once 2³² values have been added).
+// (and 8 more once its page has been folded, after 2³² − 1 values, or
+// carried into by Merge).
 func (s *Sketch) Bins() int { return (s.pos.used + s.neg.used) * pageSize }
 
 // Add adds the value x. NaN is counted apart and excluded from every
 // statistic, as in Summarize.
 func (s *Sketch) Add(x float64) {
 	s.reserve(1)
+	s.add(x)
+}
+
+// add is Add without the reservation of room in the bins' 32-bit counts,
+// for addRun, whose values AddSlice has reserved.
+func (s *Sketch) add(x float64) {
 	switch {
 	case x > 0:
 		if x > math.MaxFloat64 {
@@ -134,9 +141,10 @@ const lowMax = 1<<32 - 1
 // counts: it keeps low, the number of values added since the counts
 // were last folded into the 64-bit ones (or a bound on it after Merge),
 // at most lowMax, folding first if k more would pass it. No count can
-// then wrap round, so adding a value needs no test of its count. (Add
-// reserves for itself, so a value that addRun hands to Add is reserved
-// twice, which only brings the next fold sooner.)
+// then wrap round, so adding a value needs no test of its count. Every
+// value is reserved once, by Add or AddSlice, before it is counted: a
+// fold in the middle of a reserved run would reset low below the counts
+// still to come.
 func (s *Sketch) reserve(k int) {
 	if s.low+uint64(k) > lowMax {
 		s.pos.fold()
@@ -164,17 +172,18 @@ func (s *Sketch) AddSlice(xs []float64) {
 	}
 }
 
-// addRun adds xs, at most s.mom.room() values, to everything but the count
-// of the moments' accumulators, which the caller records. It is Add with
+// addRun adds xs, at most s.mom.room() values whose room in the bins the
+// caller has reserved, to everything but the count of the moments'
+// accumulators, which the caller records. It is add with
 // the extremes held in locals and the work for a normal value — bin look-up
 // (binTable.index), bin count (bins.inc) and sums (addBits) — written out;
-// zeros, subnormals, infinities and NaNs go through Add, and so does every
+// zeros, subnormals, infinities and NaNs go through add, and so does every
 // value for resolutions finer than 7.6·10⁻⁶, whose bin look-up walks.
 func (s *Sketch) addRun(xs []float64) {
 	t := s.tab
 	if t.multi {
 		for _, x := range xs {
-			s.Add(x)
+			s.add(x)
 		}
 		return
 	}
@@ -190,7 +199,7 @@ func (s *Sketch) addRun(xs []float64) {
 		// Below 2^−1022 (a − 2^52 wraps), ±Inf or NaN:
 		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 {
 			s.min, s.max = lo, hi
-			s.Add(x) // counts a subnormal once more towards the next fold: it only comes sooner
+			s.add(x) // counts a subnormal once more towards the next fold: it only comes sooner
 			lo, hi = s.min, s.max
 			continue
 		}

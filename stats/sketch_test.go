@@ -491,3 +491,27 @@ func TestSketchCountsPast32Bits(t *testing.T) {
 		t.Errorf("after one more value: count %d (want %d), low %d (want 1)", got, want[i]+1, a.low)
 	}
 }
+
+// TestSketchReserveBoundsCounts: low stays a bound on every 32-bit count
+// when a run that AddSlice reserved whole reaches lowMax with values that
+// go through add (a subnormal, a zero, a NaN) in its middle: they must not
+// reserve again and fold while the rest of the run is still to come.
+func TestSketchReserveBoundsCounts(t *testing.T) {
+	t.Parallel()
+	const v = 2.5
+	xs := []float64{v, v, v, 5e-324, v, 0, v, math.NaN(), v, v}
+	s := NewSketch(DefaultRelErr)
+	s.low = lowMax - uint64(len(xs)) // the run fits exactly, with no fold
+	s.AddSlice(xs)
+	var most uint32
+	for _, b := range []*bins{&s.pos, &s.neg} {
+		for _, pg := range b.pages {
+			if pg != nil {
+				most = max(most, slices.Max(pg[:]))
+			}
+		}
+	}
+	if most != 7 || s.low < uint64(most) {
+		t.Errorf("largest 32-bit count %d (want 7), bound low %d", most, s.low)
+	}
+}
