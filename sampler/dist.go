@@ -168,9 +168,8 @@ func newTruncated(base cdfQuantiler, lo, hi float64, name string) (Truncated, er
 // Quantile returns the p-quantile of the truncated distribution.
 func (t Truncated) Quantile(p float64) float64 {
 	x := t.base.Quantile(t.flo + p*t.width)
-	// Guard against rounding just past a limit. The built-in min and max
-	// order ±0 and NaN as math.Min and math.Max do, without a call.
-	return min(max(x, t.lo), t.hi)
+	// Guard against rounding just past a limit.
+	return clamp(x, t.lo, t.hi)
 }
 
 // CDF returns P(X ≤ x) of the truncated distribution.
@@ -365,7 +364,7 @@ func (t Truncated) Quantiles(ps []float64) {
 	if n, ok := t.base.(normal); ok { // the common case, without an interface call
 		for i, p := range ps {
 			x := n.mu + n.sigma*normalQuantile(t.flo+p*t.width)
-			ps[i] = min(max(x, t.lo), t.hi)
+			ps[i] = clamp(x, t.lo, t.hi)
 		}
 		return
 	}
@@ -374,10 +373,25 @@ func (t Truncated) Quantiles(ps []float64) {
 	}
 }
 
-// Quantiles replaces every p in ps by Quantile(p).
+// Quantiles replaces every p in ps by Quantile(p), with the same bits,
+// going straight to a direct table for the middle of the distribution.
 func (d PERT) Quantiles(ps []float64) {
+	lo, hi := &d.tab.lo.direct, &d.tab.hi.direct
+	if lo.node == nil || hi.node == nil {
+		for i, p := range ps {
+			ps[i] = d.Quantile(p)
+		}
+		return
+	}
 	for i, p := range ps {
-		ps[i] = d.Quantile(p)
+		switch {
+		case p >= directLo && p <= 0.5:
+			ps[i] = d.min + d.width*lo.at(p)
+		case p > 0.5 && p <= 1-directLo: // 1 − p ≥ directLo, exactly
+			ps[i] = d.max - d.width*hi.at(1-p)
+		default:
+			ps[i] = d.Quantile(p)
+		}
 	}
 }
 

@@ -29,7 +29,8 @@ const pertNodes = 2048
 // (checked against distuv.Beta.Quantile in the tests). In the middle,
 // p in [1/32, 31/32], a direct table in p takes over (see directLo), so a
 // draw there costs a cell look-up and the cubic, and a draw in the tails a
-// power and a binary search. The tables are built once by NewPERT and
+// power and a look-up in a search index of the nodes (the node a binary
+// search would find). The tables are built once by NewPERT and
 // shared by the copies of a PERT.
 type PERT struct {
 	min, mode, max float64
@@ -49,6 +50,11 @@ type halfTable struct {
 	// node[k] holds t = F(x)^(1/a), x and dx/dt at the k-th node, for
 	// k ≤ pertNodes.
 	node []pertNode
+	// start indexes node by t for quantileT, in place of a binary search:
+	// start[c] is the first node whose t lies in search cell c or above
+	// (searchCell). Nil if the nodes' t do not increase.
+	start   []int32
+	cellInv float64 // search cells per unit of t
 	// direct tabulates the middle of the half, p in [directLo, 1/2], on
 	// equal steps of p (see tabulateDirect); without nodes when not used.
 	direct hermiteTable
@@ -83,8 +89,59 @@ func newHalfTable(a, b float64) halfTable {
 	}
 	// At x = 0, F ≈ x^a / (a·B(a, b)), so dx/dt → (a·B(a, b))^(1/a).
 	h.node[0] = pertNode{t: 0, x: 0, s: math.Pow(a*math.Exp(mathext.Lbeta(a, b)), 1/a)}
+	h.indexNodes()
 	h.tabulateDirect(ref)
 	return h
+}
+
+// searchCells is the number of cells of t in a half table's search index.
+const searchCells = 8192
+
+// indexNodes builds start, the search index of the nodes by t, if their t
+// increase (as they do, F being increasing, unless rounding says
+// otherwise; quantileT then searches the whole table).
+func (h *halfTable) indexNodes() {
+	last := h.node[len(h.node)-1].t
+	for k := 1; k < len(h.node); k++ {
+		if !(h.node[k].t > h.node[k-1].t) {
+			return
+		}
+	}
+	h.cellInv = searchCells / last
+	h.start = make([]int32, searchCells+1)
+	k := 0
+	for c := range h.start {
+		for k < len(h.node) && h.searchCell(h.node[k].t) < c {
+			k++
+		}
+		h.start[c] = int32(k)
+	}
+}
+
+// searchCell returns the search cell of t ≥ 0, the last for t past the
+// table (or NaN): a function that does not decrease with t, so that a
+// node in a lower cell than t has a lower t.
+func (h *halfTable) searchCell(t float64) int {
+	c := t * h.cellInv
+	if !(c < searchCells) {
+		return searchCells
+	}
+	return int(c)
+}
+
+// above returns the first node whose t is at least t (or len(node)): what
+// a binary search of the nodes gives, found from the search index and a
+// short walk. Every node before start[c], c the cell of t, lies in a lower
+// cell and so has a lower t, and node start[c+1] has a higher one.
+func (h *halfTable) above(t float64) int {
+	if h.start == nil {
+		return sort.Search(len(h.node), func(i int) bool { return h.node[i].t >= t })
+	}
+	k := int(h.start[h.searchCell(t)])
+	for k < len(h.node) && h.node[k].t < t {
+		k++
+	}
+	return k
 }
 
 // tabulateDirect builds the direct table: at each step p_k the quantile x
@@ -117,8 +174,7 @@ func (h *halfTable) quantileT(p float64) float64 {
 		return 0
 	}
 	t := math.Pow(p, 1/h.a)
-	k := sort.Search(len(h.node), func(i int) bool { return h.node[i].t >= t }) - 1
-	return h.cell(k, t)
+	return h.cell(h.above(t)-1, t)
 }
 
 // cell evaluates the cubic Hermite interpolant of cell k (clamped to the
@@ -133,9 +189,7 @@ func (h *halfTable) cell(k int, t float64) float64 {
 	u := (t - n0.t) / d
 	u2, u3 := u*u, u*u*u
 	x := (2*u3-3*u2+1)*n0.x + (u3-2*u2+u)*d*n0.s + (-2*u3+3*u2)*n1.x + (u3-u2)*d*n1.s
-	// The built-in min and max order ±0 and NaN as math.Min and math.Max
-	// do (Go specification, "Min and max"), without a call.
-	return min(max(x, n0.x), n1.x)
+	return clamp(x, n0.x, n1.x)
 }
 
 // NewPERT returns the beta-PERT distribution on [min, max] with the given
