@@ -37,8 +37,9 @@
 // # Long runs
 //
 // A Sketch summarises any number of trials in bounded memory: a histogram
-// of logarithmic bins of constant relative width gives every order
-// statistic within a stated relative error (DefaultRelErr = 10⁻⁴), and
+// of bins named by the top bits of each value (so of relative width at
+// most 2^−13 at the default resolution) gives every order statistic
+// within a stated relative error (DefaultRelErr = 10⁻⁴), and
 // exact integer sums give the mean and standard deviation exactly. Its
 // state is made of exact counts, so sketches merge in any order with
 // bit-identical results.

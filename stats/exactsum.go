@@ -133,6 +133,69 @@ func addBits(acc *[exponents]expAcc, u uint64) {
 	a.sqHi += hi + c
 }
 
+// addExps adds the normal values of xs (the others are left out) to the
+// exponent accumulators; the caller counts them (counted).
+func (m *moments) addExps(xs []float64) {
+	acc := m.acc
+	for _, x := range xs {
+		u := math.Float64bits(x)
+		a := u &^ (1 << 63)
+		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 { // not normal
+			continue
+		}
+		// As addBits for a normal value, whose significand has its
+		// implicit bit.
+		mant := a&fracMask | 1<<52
+		e := &acc[a>>52]
+		neg := int64(u) >> 63 // −1 for a negative value
+		sm := uint64((int64(mant) ^ neg) - neg)
+		var c uint64
+		e.sumLo, c = bits.Add64(e.sumLo, sm, 0)
+		e.sumHi += uint64(neg) + c
+		sh, sl := bits.Mul64(mant, mant)
+		e.sqLo, c = bits.Add64(e.sqLo, sl, 0)
+		e.sqHi += sh + c
+	}
+}
+
+// windowBinades is the number of binary exponents a window sum spans
+// (addWindow): a significand below 2^53 shifted by at most 11 stays below
+// 2^64.
+const windowBinades = 12
+
+// addWindow adds xs, normal values of one sign (negative if neg) whose
+// biased exponents lie in [e0, e0 + windowBinades), at most accLimit of
+// them, straight to the limbs: each value is m·2^(be − 1075) for its
+// significand m and biased exponent be, so the sum of the values is
+// 2^(e0 − 1075)·Σ m·2^(be − e0), and of their squares
+// 2^(2·e0 − 2150)·Σ (m·2^(be − e0))², whose terms are below 2^64 and
+// 2^128, and whose sums, over at most 2^21 terms, below 2^85 and 2^149:
+// two and three 64-bit words, kept in registers. The limbs get the same
+// integers as from the exponent accumulators; the caller counts the
+// values (counted).
+func (m *moments) addWindow(xs []float64, e0 uint64, neg bool) {
+	var s0, s1, q0, q1, q2 uint64 // Σ v and Σ v², v = m·2^(be − e0)
+	for _, x := range xs {
+		a := math.Float64bits(x)
+		v := (a&fracMask | 1<<52) << ((a>>52&0x7ff - e0) & 63)
+		var c uint64
+		s0, c = bits.Add64(s0, v, 0)
+		s1 += c
+		h, l := bits.Mul64(v, v)
+		q0, c = bits.Add64(q0, l, 0)
+		q1, c = bits.Add64(q1, h, c)
+		q2 += c
+	}
+	e := int(e0) - 1075
+	m.sum.add(s1, s0, e, neg)
+	m.sq.add(q1, q0, 2*e, false)
+	m.sq.add(0, q2, 2*e+128, false)
+	m.pending += 3
+	if m.pending >= carryEvery {
+		m.normalize()
+	}
+}
+
 // moments accumulates the exact count, sum and sum of squares of the
 // values added, counting infinities apart. Build it with newMoments.
 type moments struct {

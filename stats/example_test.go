@@ -54,5 +54,5 @@ func ExampleSketch() {
 	sk.AddSlice(heatTrials(10000))
 	fmt.Printf("P50 = %.4g J within ±%.0e relative\n", sk.Exceedance(0.5), sk.RelErr())
 	// Output:
-	// P50 = 9.584e+17 J within ±1e-04 relative
+	// P50 = 9.584e+17 J within ±6e-05 relative
 }

@@ -3,23 +3,27 @@ package stats
 import (
 	"fmt"
 	"math"
-	"math/bits"
 	"slices"
 	"sync"
 
 	"rockheat/stats/radix"
 )
 
-// DefaultRelErr is the relative error bound of rockheat's sketches: bins
-// 2·10⁻⁴ wide in relative terms, 11 513 bins (46 kB) per decade of values.
+// DefaultRelErr is the relative error bound of rockheat's sketches. Its
+// bins keep 13 bits of the fraction, 8 192 bins (32 kB) per binade and
+// 27 213 (109 kB) per decade of values, at most 2^−13 = 1.2·10⁻⁴ wide in
+// relative terms, so that every value lies within 6.1·10⁻⁵ of its bin's
+// representative (RelErr).
 const DefaultRelErr = 1e-4
 
 // Sketch is a bounded-memory, mergeable summary of a stream of values, for
 // runs too long to keep every trial. It keeps exact counts in a histogram of
-// logarithmic bins of constant relative width (one for positive values, a
-// mirrored one for negative values, and counters for zeros, infinities and
-// NaNs), the exact minimum and maximum (−0 before +0), and exact sums of the values and of
-// their squares.
+// bins named by the top bits of a value (binTable: an exponent and the
+// leading bits of the fraction, so bins of relative width at most 2^−bits;
+// one histogram for positive values, a mirrored one for negative values,
+// and counters for zeros, infinities and NaNs), the exact minimum and
+// maximum (−0 before +0), and exact sums of the values and of their
+// squares.
 //
 // Error bound: with α = RelErr() (at most the relErr asked of NewSketch),
 // every order statistic is reported within α·|x| of its exact value x, so
@@ -38,19 +42,21 @@ const DefaultRelErr = 1e-4
 //
 // Memory: 4 bytes per bin (32-bit counts, folded into 64-bit ones before
 // one could wrap round), in pages of 256 bins allocated where values
-// fall: at most about ln(max/min)/(2α) bins per sign for the range of
-// magnitudes seen (46 kB per decade at α = 10⁻⁴), far fewer when values
-// are spread thinly over many decades; a page table of 8 bytes a page of
-// the range; and 66 kB of sums (1.7 kB of
-// limbs and 64 kB of accumulators, one per binary exponent); Bins reports
-// the count. The look-up tables of a resolution (about 115 kB at
-// α = 10⁻⁴) are built once and shared by all sketches.
+// fall: at most 2^bits bins per sign for each binade (factor of 2) of the
+// range of magnitudes seen (32 kB a binade, 109 kB a decade at the
+// default resolution), far fewer when values are spread thinly over many
+// decades; a page table of 8 bytes a page of the range; and 66 kB of sums
+// (1.7 kB of limbs and 64 kB of accumulators, one per binary exponent);
+// Bins reports the count. The representatives of a resolution (64 kB at
+// the default) are computed once and shared by all sketches.
 //
-// Add costs a table look-up on the bits of the value (no logarithm) and a
-// few integer additions; AddSlice does the same work in one loop, without
-// a call per value. A Sketch is not safe for concurrent use; give
-// each goroutine its own and merge them. The zero Sketch is not usable;
-// use NewSketch.
+// Add costs a shift of the value's bits and a few integer additions.
+// AddSlice does the same work in two loops, one for the bins and one for
+// the sums, each without a call per value and with its state in
+// registers; the sums of a run of values of one sign within 12 binades
+// go straight to the exact accumulators (moments.addWindow). A Sketch is
+// not safe for concurrent use; give each goroutine its own and merge
+// them. The zero Sketch is not usable; use NewSketch.
 type Sketch struct {
 	tab      *binTable
 	pos, neg bins // counts of positive values and of negative values by |x|
@@ -72,10 +78,8 @@ func NewSketch(relErr float64) *Sketch {
 	if !(relErr >= 1e-6 && relErr <= 0.1) {
 		panic(fmt.Sprintf("stats: NewSketch relative error %g outside [1e-6, 0.1]", relErr))
 	}
-	g := (1 + relErr) / (1 - relErr)
-	k := int(math.Ceil(math.Ln2 / math.Log(g)))
 	return &Sketch{
-		tab: tableFor(k),
+		tab: tableFor(binBits(relErr)),
 		min: math.Inf(1),
 		max: math.Inf(-1),
 		mom: newMoments(),
@@ -174,72 +178,153 @@ func (s *Sketch) AddSlice(xs []float64) {
 
 // addRun adds xs, at most s.mom.room() values whose room in the bins the
 // caller has reserved, to everything but the count of the moments'
-// accumulators, which the caller records. It is add with
-// the extremes held in locals and the work for a normal value — bin look-up
-// (binTable.index), bin count (bins.inc) and sums (addBits) — written out;
-// zeros, subnormals, infinities and NaNs go through add, and so does every
-// value for resolutions finer than 7.6·10⁻⁶, whose bin look-up walks.
+// accumulators, which the caller records. It is add, value by value, in
+// two loops: one counts the bins (binRun) and one sums (moments.addWindow
+// for a run of one sign within 12 binades, else moments.addExps), each
+// with its state in registers. Zeros, subnormals, infinities and NaNs go
+// through add instead, as a whole.
 func (s *Sketch) addRun(xs []float64) {
-	t := s.tab
-	if t.multi {
-		for _, x := range xs {
-			s.add(x)
-		}
+	before := s.n + s.nan // counts of the values that go through add
+	lo, hi := s.binRun(xs)
+	normal := uint64(len(xs)) - (s.n + s.nan - before)
+	if normal == 0 {
 		return
 	}
-	lo, hi := s.min, s.max
-	acc := s.mom.acc
-	// The shift is below 64; saying so (& 63) spares the compiled loop its
-	// check of the shift's range.
-	cell, frac, shift, k := t.cell, t.frac, (52-t.bits)&63, t.k
-	before := s.n + s.nan // counts of the values that go through Add
-	for _, x := range xs {
+	if keyLess(lo, s.min) {
+		s.min = lo
+	}
+	if keyLess(s.max, hi) {
+		s.max = hi
+	}
+	special := normal < uint64(len(xs))
+	if a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi)); !special && (lo > 0 || hi < 0) && max(a, b)>>52-min(a, b)>>52 < windowBinades {
+		s.mom.addWindow(xs, min(a, b)>>52, hi < 0)
+	} else {
+		s.mom.addExps(xs)
+	}
+	s.n += normal
+	s.mom.n += int64(normal)
+}
+
+// binRun counts the normal values of xs in the bins, hands the others to
+// add, and returns the least and greatest normal value (+Inf and −Inf if
+// none). Runs of values of one sign go through countSigned; values of
+// mixed signs, once a run of one sign proves short, through countBins.
+func (s *Sketch) binRun(xs []float64) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	mixed := false
+	for len(xs) > 0 {
+		var k int
+		if mixed {
+			k, lo, hi = countBins(&s.pos, &s.neg, s.tab.shift, xs, lo, hi)
+		} else {
+			k, lo, hi = s.countRun(xs, lo, hi)
+			// A run of one sign cut short by a value of the other:
+			mixed = k < 16 && k < len(xs) && math.Signbit(xs[k]) != math.Signbit(xs[0]) &&
+				isNormal(math.Float64bits(xs[k])&^(1<<63))
+		}
+		if k == len(xs) {
+			break
+		}
+		// Stopped at a value that is not normal, of the other sign, or
+		// whose bin has no page.
+		x := xs[k]
+		switch a := math.Float64bits(x) &^ (1 << 63); {
+		case !isNormal(a):
+			s.add(x) // counts a subnormal once more towards the next fold: it only comes sooner
+		case x > 0:
+			s.pos.inc(s.tab.index(x))
+			lo, hi = min(lo, x), max(hi, x)
+		default:
+			s.neg.inc(s.tab.index(-x))
+			lo, hi = min(lo, x), max(hi, x)
+		}
+		xs = xs[k+1:]
+	}
+	return lo, hi
+}
+
+// countRun counts, by countSigned, the leading values of xs that have the
+// sign of the first, and returns the index where it stopped and the
+// extremes lo and hi updated.
+func (s *Sketch) countRun(xs []float64, lo, hi float64) (int, float64, float64) {
+	b, sign := &s.pos, uint64(0)
+	if math.Signbit(xs[0]) {
+		b, sign = &s.neg, 1<<63
+	}
+	k, amin, amax := countSigned(b, sign, s.tab.shift, xs)
+	if k > 0 {
+		a, z := math.Float64frombits(amin|sign), math.Float64frombits(amax|sign)
+		if sign != 0 {
+			a, z = z, a // the greatest magnitude is the least value
+		}
+		lo, hi = min(lo, a), max(hi, z)
+	}
+	return k, lo, hi
+}
+
+// isNormal reports whether a, the bits of a value's magnitude, are those
+// of a normal value: not zero, subnormal, infinite or NaN.
+func isNormal(a uint64) bool { return a>>52-1 < 0x7fe }
+
+// countSigned counts in b the leading values of xs that are normal, of
+// the sign whose bit is sign (0 or 1<<63), and whose bin has a page, and
+// returns how many it counted and the least and greatest bits of their
+// magnitudes (whose order is that of the magnitudes). Making no call,
+// and finding the values of the other sign, the zeros, subnormals,
+// infinities and NaNs with one comparison of the exponent bits, it keeps
+// its state in registers.
+func countSigned(b *bins, sign uint64, shift uint, xs []float64) (k int, amin, amax uint64) {
+	shift &= 63 // below 64; saying so spares the loop a check
+	pages, first := b.pages, b.first
+	amin = math.MaxUint64
+	for k, x := range xs {
+		a := math.Float64bits(x) ^ sign // bits of |x| if x has the sign
+		if !isNormal(a) {               // (the other sign sets the top bit)
+			return k, amin, amax
+		}
+		i := int(a >> shift)
+		p := i>>pageBits - first
+		if uint(p) >= uint(len(pages)) || pages[p] == nil {
+			return k, amin, amax
+		}
+		pages[p][i&(pageSize-1)]++
+		amin, amax = min(amin, a), max(amax, a)
+	}
+	return len(xs), amin, amax
+}
+
+// countBins counts the values of xs in pos and neg, keeping lo and hi,
+// the least and greatest, until a value that is not normal or whose bin
+// has no page, whose index it returns (len(xs) if none). Making no call,
+// it keeps its state in registers.
+func countBins(pos, neg *bins, shift uint, xs []float64, lo, hi float64) (int, float64, float64) {
+	shift &= 63
+	pp, pf, np, nf := pos.pages, pos.first, neg.pages, neg.first
+	for k, x := range xs {
 		u := math.Float64bits(x)
 		a := u &^ (1 << 63) // bits of |x|
-		// Below 2^−1022 (a − 2^52 wraps), ±Inf or NaN:
-		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 {
-			s.min, s.max = lo, hi
-			s.add(x) // counts a subnormal once more towards the next fold: it only comes sooner
-			lo, hi = s.min, s.max
-			continue
+		if !isNormal(a) {
+			return k, lo, hi
 		}
+		i := int(a >> shift)
+		pages, first := pp, pf
+		if u>>63 != 0 {
+			pages, first = np, nf
+		}
+		p := i>>pageBits - first
+		if uint(p) >= uint(len(pages)) || pages[p] == nil {
+			return k, lo, hi
+		}
+		pages[p][i&(pageSize-1)]++
 		if x < lo {
 			lo = x
 		}
 		if x > hi {
 			hi = x
 		}
-		// Bin: as binTable.index for a normal value.
-		f := a & fracMask
-		j := int(cell[f>>shift])
-		j += int((frac[j+1] - 1 - f) >> 63)
-		i := (int(a>>52)-1023)*k + j
-		b := &s.pos
-		if u>>63 != 0 {
-			b = &s.neg
-		}
-		if k := i>>pageBits - b.first; uint(k) < uint(len(b.pages)) && b.pages[k] != nil {
-			b.pages[k][i&(pageSize-1)]++
-		} else {
-			b.inc(i)
-		}
-		// Sums: as addBits for a normal value, whose significand has its
-		// implicit bit.
-		m := f | 1<<52
-		e := &acc[a>>52]
-		neg := int64(u) >> 63 // −1 for a negative value
-		sm := uint64((int64(m) ^ neg) - neg)
-		var c uint64
-		e.sumLo, c = bits.Add64(e.sumLo, sm, 0)
-		e.sumHi += uint64(neg) + c
-		sh, sl := bits.Mul64(m, m)
-		e.sqLo, c = bits.Add64(e.sqLo, sl, 0)
-		e.sqHi += sh + c
 	}
-	s.min, s.max = lo, hi
-	normal := uint64(len(xs)) - (s.n + s.nan - before)
-	s.n += normal
-	s.mom.n += int64(normal)
+	return len(xs), lo, hi
 }
 
 // Merge adds the values summarised by o to s; o is not changed. The
@@ -645,133 +730,78 @@ func (b *bins) walk(down bool, f func(i int, c uint64) bool) {
 	}
 }
 
-// binTable maps positive float64 values to logarithmic bins. With x =
-// m·2^e, 1 ≤ m < 2, bin index e·k + j holds the values whose m is in
-// [bound[j], bound[j+1]), bound[j] = 2^(j/k): every bin spans the ratio
-// γ = 2^(1/k). Its representative is the harmonic mean of its ends, which
-// is within (γ−1)/(γ+1) relative error of every value in it.
+// binTable maps positive float64 values to bins by their bits: bin i
+// holds the values whose bits, shifted right by shift = 52 − bits, are i,
+// that is a binary exponent and the top bits bits of the fraction. So the
+// index is one shift, bins keep the order of the values, and a normal
+// value m·2^e, 1 ≤ m < 2, lies in the bin [a, b)·2^e with
+// a = 1 + j·2^−bits and b = a + 2^−bits: a ratio b/a of at most
+// 1 + 2^−bits. Its representative is the harmonic mean of its ends,
+// within (b − a)/(b + a) < 2^−(bits+1) relative error of every value in
+// it. Subnormal values, whose exponent field is 0, fall in bins of
+// absolute width 2^−(1022+bits), and so lose relative precision.
 type binTable struct {
-	k      int
-	bits   uint      // fraction bits indexing cell
-	cell   []uint32  // cell[c]: bin of the first mantissa of cell c (see newBinTable)
-	multi  bool      // whether a cell may hold more than one bin end
-	bound  []float64 // k+1 bin ends in [1, 2]
-	frac   []uint64  // fraction bits of bound[0 … k−1], then 2^52 for bound[k] = 2
-	rep    []float64 // k representatives
+	bits   uint      // fraction bits that name a bin within its binade
+	shift  uint      // 52 − bits
+	rep    []float64 // representatives of the 2^bits bins of [1, 2)
 	relErr float64
 }
 
-var tables sync.Map // k → *binTable; tables are immutable once built
+var tables sync.Map // bits → *binTable; tables are immutable once built
 
-func tableFor(k int) *binTable {
-	if t, ok := tables.Load(k); ok {
+func tableFor(bits uint) *binTable {
+	if t, ok := tables.Load(bits); ok {
 		return t.(*binTable)
 	}
-	t, _ := tables.LoadOrStore(k, newBinTable(k))
+	t, _ := tables.LoadOrStore(bits, newBinTable(bits))
 	return t.(*binTable)
 }
 
-func newBinTable(k int) *binTable {
-	t := &binTable{k: k}
-	t.bound = make([]float64, k+1)
-	for j := range k {
-		t.bound[j] = math.Exp2(float64(j) / float64(k))
+// binBits returns the fewest fraction bits whose bins keep every value
+// within relErr of its bin's representative: the widest bin, [1, 1 + w)
+// with w = 2^−bits, has the error w/(2 + w).
+func binBits(relErr float64) uint {
+	bits := uint(1)
+	for w := 0.5; w/(2+w) > relErr; w /= 2 {
+		bits++
 	}
-	t.bound[k] = 2
-	t.rep = make([]float64, k)
-	for j := range k {
-		a, b := t.bound[j], t.bound[j+1]
+	return bits
+}
+
+func newBinTable(bits uint) *binTable {
+	t := &binTable{bits: bits, shift: 52 - bits, rep: make([]float64, 1<<bits)}
+	w := math.Ldexp(1, -int(bits))
+	for j := range t.rep {
+		a, b := 1+float64(j)*w, 1+float64(j+1)*w // exact: bits ≤ 52
 		r := 2 * a * b / (a + b)
 		t.rep[j] = r
 		t.relErr = math.Max(t.relErr, math.Max((r-a)/a, (b-r)/b))
 	}
 	t.relErr += 4 * epsilon // rounding of the representative and of a scaled value
-	t.frac = make([]uint64, k+1)
-	for j := range k {
-		t.frac[j] = math.Float64bits(t.bound[j]) & fracMask
-	}
-	t.frac[k] = 1 << 52
-	// Cells are the 2^bits equal slices of the fraction bits; cell[c] is
-	// the bin j of the cell's first mantissa (k < 2^19 for relErr ≥ 1e-6).
-	// With enough bits a cell is narrower than the narrowest bin and holds
-	// at most one bin end, so the look-up and one comparison with the end
-	// of bin j find the bin. Past 16 bits (relErr < 7.6e-6) cells may hold
-	// several ends and index walks frac from j.
-	minWidth := t.bound[1] - t.bound[0]
-	t.bits = 9
-	for t.bits < 16 && math.Ldexp(1, -int(t.bits)) >= minWidth {
-		t.bits++
-	}
-	t.multi = math.Ldexp(1, -int(t.bits)) >= minWidth
-	t.cell = make([]uint32, 1<<t.bits)
-	width := uint64(1) << (52 - t.bits)
-	j := 0
-	for c := range t.cell {
-		start := uint64(c) * width
-		for t.frac[j+1] <= start {
-			j++
-		}
-		t.cell[c] = uint32(j)
-	}
 	return t
 }
 
 const fracMask = 1<<52 - 1
 
 // index returns the bin index of the positive finite value x.
-func (t *binTable) index(x float64) int {
-	u := math.Float64bits(x)
-	e := int(u >> 52)
-	if e == 0 { // subnormal: scale into the normal range
-		u = math.Float64bits(x * 0x1p64)
-		e = int(u>>52) - 64
-	}
-	e -= 1023
-	f := u & fracMask
-	j := int(t.cell[f>>(52-t.bits)])
-	// The mantissas in [1, 2) share their exponent, so comparing fraction
-	// bits as integers compares them as numbers. f < 2^52 ≤ frac[j+1] + 2^52,
-	// so the difference is negative, its top bit set, just when
-	// f ≥ frac[j+1]: one step up without a branch.
-	j += int((t.frac[j+1] - 1 - f) >> 63)
-	if t.multi {
-		for f >= t.frac[j+1] {
-			j++
-		}
-	}
-	return e*t.k + j
-}
+func (t *binTable) index(x float64) int { return int(math.Float64bits(x) >> t.shift) }
 
 // bitRange returns the range [lo, hi) of the bits of the positive values
-// of bin index i, which holds m·2^e with fraction bits f of m in
-// [frac[j], frac[j+1]) for i = e·k + j. For a normal e that is the bits
-// themselves; below (the subnormals, which index scales by 2^64 into the
-// normal range), the multiples n of 2^−1074 with n·2^−1074 in the bin.
+// of bin index i: the bits that index shifts down to i, but for the bits
+// of zero, which no bin holds.
 func (t *binTable) bitRange(i int) (lo, hi uint64) {
-	e := i / t.k
-	j := i - e*t.k
-	if j < 0 {
-		e--
-		j += t.k
-	}
-	m0, m1 := 1<<52+t.frac[j], 1<<52+t.frac[j+1] // significands, 2^52 scale; m1 ≤ 2^53
-	if be := e + 1023; be >= 1 {
-		// m1 = 2^53 (the last bin of a binade) carries into the exponent.
-		return uint64(be)<<52 + m0 - 1<<52, uint64(be)<<52 + m1 - 1<<52
-	}
-	// n·2^−1074 ≥ m·2^(e−52), n ≥ m·2^(e+1022): round the shift up.
-	sh := uint(-(e + 1022)) // ≥ 1
-	up := func(m uint64) uint64 { return (m + 1<<sh - 1) >> sh }
-	return up(m0), up(m1)
+	return max(uint64(i)<<t.shift, 1), uint64(i+1) << t.shift
 }
 
-// value returns the representative value of bin index i.
+// value returns the representative value of bin index i: for a normal
+// binade its table value scaled by 2^e, for the subnormal one the middle
+// of the bin.
 func (t *binTable) value(i int) float64 {
-	e := i / t.k
-	j := i - e*t.k
-	if j < 0 {
-		e--
-		j += t.k
+	be, j := i>>t.bits, i&(1<<t.bits-1)
+	if be == 0 {
+		lo, hi := t.bitRange(i)
+		a, b := math.Float64frombits(lo), math.Float64frombits(hi)
+		return a + (b-a)/2
 	}
-	return math.Ldexp(t.rep[j], e)
+	return math.Ldexp(t.rep[j], be-1023)
 }

@@ -103,6 +103,9 @@ func TestSketchAddIdentical(t *testing.T) {
 		relErr float64
 	}{
 		{"lognormal", lognormal(1e5, 40, 1.5, 1), DefaultRelErr},
+		// Narrow ranges of one sign, whose sums go through addWindow.
+		{"lognormal narrow", lognormal(1e5, 40, 0.3, 7), DefaultRelErr},
+		{"negative narrow", negate(lognormal(1e5, -3, 0.3, 8)), DefaultRelErr},
 		{"normal", normal(1e5, 0, 1, 2), DefaultRelErr},
 		{"normal fine", normal(3e4, 5, 1, 3), 1e-6},
 		{"adversarial", adversarial(3e4, 4), 0.1},
@@ -141,6 +144,10 @@ func TestSketchAddFolds(t *testing.T) {
 		{"lognormal", lognormal(accLimit+12345, 40, 1, 7)},
 		{"largest significands", slices.Repeat([]float64{top, -top * 0x1p900, top * 0x1p-1000}, accLimit/3+777)},
 		{"negative", slices.Repeat([]float64{-top * 0x1p1000}, accLimit+3)},
+		// The widest window of addWindow (11 binades apart) at its
+		// largest significands, which bring its sums closest to 2^64
+		// and its sums of squares to 2^149.
+		{"window edges", slices.Repeat([]float64{top * 0x1p-20, top * 0x1p-9}, accLimit/2+5)},
 	} {
 		r := newRefSketch(DefaultRelErr)
 		r.AddSlice(tc.x)
@@ -171,4 +178,12 @@ func TestSketchMergeIdentical(t *testing.T) {
 	ra.Merge(rb)
 	sameAsRef(t, "merged", a, ra)
 	sameAsRef(t, "merged-in", b, rb)
+}
+
+// negate returns x with every value's sign flipped, in place.
+func negate(x []float64) []float64 {
+	for i := range x {
+		x[i] = -x[i]
+	}
+	return x
 }

@@ -4,23 +4,18 @@ import (
 	"math"
 	"math/big"
 	"math/bits"
-	"sync"
 )
 
-// This file keeps, for the tests, a verbatim copy (names prefixed "ref")
-// of Sketch.Add with its bins, bin table and exact sums as they were
-// before AddSlice and the sums were rewritten for speed: the tests hold
-// the new code to the same counts, extremes and sums, bit for bit.
+// This file keeps, for the tests, a plain copy (names prefixed "ref") of
+// Sketch.Add with dense bins and exact sums as they were before AddSlice
+// and the sums were rewritten for speed, its bins found from their
+// definition (refBinTable) rather than from the bits: the tests hold the
+// fast code to the same counts, extremes and sums, bit for bit.
 
-var refTables sync.Map // k → *refBinTable
-
-// newRefSketch is NewSketch of the copy, with the copy's bin tables.
+// newRefSketch is NewSketch of the copy.
 func newRefSketch(relErr float64) *refSketch {
-	g := (1 + relErr) / (1 - relErr)
-	k := int(math.Ceil(math.Ln2 / math.Log(g)))
-	tab, _ := refTables.LoadOrStore(k, newRefBinTable(k))
 	return &refSketch{
-		tab: tab.(*refBinTable),
+		tab: &refBinTable{bits: binBits(relErr)},
 		min: math.Inf(1),
 		max: math.Inf(-1),
 		mom: newRefMoments(),
@@ -82,7 +77,7 @@ func (s *refSketch) AddSlice(xs []float64) {
 // sketches must come from NewSketch with the same relErr; Merge panics
 // otherwise.
 func (s *refSketch) Merge(o *refSketch) {
-	if s.tab != o.tab {
+	if s.tab.bits != o.tab.bits {
 		panic("stats: Merge of sketches with different relative errors")
 	}
 	s.pos.merge(&o.pos)
@@ -164,90 +159,21 @@ func (b *refBins) merge(o *refBins) {
 	}
 }
 
-type refBinTable struct {
-	k      int
-	bits   uint      // mantissa bits indexing cell
-	cell   []uint64  // cell[c]: offset of the next bin end in cell c << 20 | j (see newRefBinTable)
-	multi  bool      // whether a cell may hold more than one bin end
-	bound  []float64 // k+1 bin ends in [1, 2]
-	frac   []uint64  // fraction bits of bound[0 … k−1], then 2^52 for bound[k] = 2
-	rep    []float64 // k representatives
-	relErr float64
-}
-
-func newRefBinTable(k int) *refBinTable {
-	t := &refBinTable{k: k}
-	t.bound = make([]float64, k+1)
-	for j := range k {
-		t.bound[j] = math.Exp2(float64(j) / float64(k))
-	}
-	t.bound[k] = 2
-	t.rep = make([]float64, k)
-	for j := range k {
-		a, b := t.bound[j], t.bound[j+1]
-		r := 2 * a * b / (a + b)
-		t.rep[j] = r
-		t.relErr = math.Max(t.relErr, math.Max((r-a)/a, (b-r)/b))
-	}
-	t.relErr += 4 * epsilon // rounding of the representative and of a scaled value
-	t.frac = make([]uint64, k+1)
-	for j := range k {
-		t.frac[j] = math.Float64bits(t.bound[j]) & fracMask
-	}
-	t.frac[k] = 1 << 52
-	// Cells are the 2^bits equal slices of the fraction bits. With enough
-	// bits a cell is narrower than the narrowest bin and holds at most one
-	// bin end: cell[c] packs the bin j of the cell's first mantissa (20
-	// bits; k < 2^19 for relErr ≥ 1e-6) and above it the offset within the
-	// cell of the end of bin j, or 2^44−1 if bin j extends past the cell (a
-	// cell spans at most 2^43 fraction units, as bits ≥ 9), so one look-up
-	// and one comparison find the bin. Past 16 bits (relErr < 7.6e-6)
-	// cells may hold several ends and index walks frac from j.
-	minWidth := t.bound[1] - t.bound[0]
-	t.bits = 9
-	for t.bits < 16 && math.Ldexp(1, -int(t.bits)) >= minWidth {
-		t.bits++
-	}
-	t.multi = math.Ldexp(1, -int(t.bits)) >= minWidth
-	t.cell = make([]uint64, 1<<t.bits)
-	width := uint64(1) << (52 - t.bits)
-	j := 0
-	for c := range t.cell {
-		start := uint64(c) * width
-		for t.frac[j+1] <= start {
-			j++
-		}
-		off := uint64(1<<44 - 1)
-		if end := t.frac[j+1]; end < start+width {
-			off = end - start
-		}
-		t.cell[c] = off<<20 | uint64(j)
-	}
-	return t
-}
+// refBinTable finds a value's bin from the definition of the bins
+// (binTable), with arithmetic rather than bits: a normal x = m·2^e,
+// 1 ≤ m < 2, is in bin (e + 1023)·2^bits + ⌊(m − 1)·2^bits⌋, a subnormal
+// x in bin ⌊x·2^(1022+bits)⌋ (all exact: scalings by powers of 2 and the
+// subtraction of 1 from m).
+type refBinTable struct{ bits uint }
 
 // index returns the bin index of the positive finite value x.
 func (t *refBinTable) index(x float64) int {
-	u := math.Float64bits(x)
-	e := int(u >> 52)
-	if e == 0 { // subnormal: scale into the normal range
-		u = math.Float64bits(x * 0x1p64)
-		e = int(u>>52) - 64
+	if x < 0x1p-1022 {
+		return int(math.Ldexp(x, 1022+int(t.bits)))
 	}
-	e -= 1023
-	f := u & fracMask
-	ent := t.cell[f>>(52-t.bits)]
-	j := int(ent & (1<<20 - 1))
-	if t.multi {
-		// The mantissas in [1, 2) share their exponent, so comparing
-		// fraction bits as integers compares them as numbers.
-		for f >= t.frac[j+1] {
-			j++
-		}
-	} else if f&(1<<(52-t.bits)-1) >= ent>>20 {
-		j++
-	}
-	return e*t.k + j
+	m, e := math.Frexp(x) // x = m·2^e, m in [0.5, 1)
+	m, e = 2*m, e-1
+	return (e+1023)<<t.bits + int(math.Ldexp(m-1, int(t.bits)))
 }
 
 // refFixed is an exact refFixed-point accumulator with least significant bit of

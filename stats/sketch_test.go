@@ -136,32 +136,33 @@ func TestSketchRankKeyRanges(t *testing.T) {
 
 // TestBinBitRange: bitRange is exact, against binTable.index (the
 // reference: the bin every value is counted in): bins meet end to end
-// with neither gap nor overlap over whole binades (the lowest subnormals,
-// the subnormal–normal boundary at 2^−1022, around 1, and the top, whose
-// last bin ends at +Inf's bits), and the first and last bits of each bin
-// index to it, at coarse, default and walking (multi) resolutions.
+// with neither gap nor overlap over whole binades (the subnormals, the
+// subnormal–normal boundary at 2^−1022, around 1, and the top, whose last
+// bin ends at +Inf's bits), and the first and last bits of each bin index
+// to it, at coarse, default and fine resolutions.
 func TestBinBitRange(t *testing.T) {
 	t.Parallel()
 	for _, alpha := range []float64{0.1, 0.01, DefaultRelErr, 1e-6} {
 		tab := NewSketch(alpha).tab
 		index := func(u uint64) int { return tab.index(math.Float64frombits(u)) }
-		for _, e := range []int{-1074, -1073, -1060, -1023, -1022, -1021, -1, 0, 1, 1022, 1023} {
-			first := e * tab.k
-			_, end := tab.bitRange(first - 1)
-			if e == -1074 {
-				end = 1 // the smallest subnormal
+		per := 1 << tab.bits // bins a binade
+		for _, be := range []int{0, 1, 2, 1022, 1023, 1024, 2046} {
+			first := be * per
+			end := uint64(1) // the smallest subnormal
+			if be > 0 {
+				_, end = tab.bitRange(first - 1)
 			}
-			for i := first; i < first+tab.k; i++ {
+			for i := first; i < first+per; i++ {
 				lo, hi := tab.bitRange(i)
 				if lo != end {
 					t.Fatalf("α %g, bin %d: starts at %#x, the bin before ends at %#x", alpha, i, lo, end)
 				}
-				if lo < hi && (index(lo) != i || index(hi-1) != i) {
+				if index(lo) != i || index(hi-1) != i {
 					t.Fatalf("α %g, bin %d: range [%#x, %#x) indexes to %d … %d", alpha, i, lo, hi, index(lo), index(hi-1))
 				}
 				end = hi
 			}
-			if e == 1023 && end != math.Float64bits(math.Inf(1)) {
+			if be == 2046 && end != math.Float64bits(math.Inf(1)) {
 				t.Errorf("α %g: the last bin ends at %#x, not at +Inf", alpha, end)
 			}
 		}
@@ -319,19 +320,20 @@ func TestSketchMergeMismatch(t *testing.T) {
 	NewSketch(1e-4).Merge(NewSketch(1e-3))
 }
 
-// TestSketchMemory checks the stated memory: at most ln(max/min)/(2α)
-// bins for the range of values, in whole pages, and, for values spread over
-// hundreds of decades, only the pages where values fall.
+// TestSketchMemory checks the stated memory: at most 2^bits bins a binade
+// (factor of 2) of the range of values, in whole pages, and, for values
+// spread over hundreds of decades, only the pages where values fall.
 func TestSketchMemory(t *testing.T) {
 	t.Parallel()
 	x := lognormal(100000, 40, 1, 8)
 	s := NewSketchOf(x)
-	need := math.Log(s.Summary(DefaultOptions).Max/s.Summary(DefaultOptions).Min) / (2 * DefaultRelErr)
+	sum := s.Summary(DefaultOptions)
+	need := (math.Log2(sum.Max/sum.Min) + 1) * float64(int(1)<<s.tab.bits)
 	if b := float64(s.Bins()); b > need+2*pageSize {
 		t.Errorf("%d bins for a range needing %.0f", s.Bins(), need)
 	}
 	// 1000 values at each of 1e-300, 1e-200, …, 1e300: 7 occupied bins
-	// across 600 decades, so 7 pages, not 6.9 million bins.
+	// across 600 decades, so 7 pages, not 16 million bins.
 	wide := NewSketch(DefaultRelErr)
 	for e := -300; e <= 300; e += 100 {
 		for range 1000 {
@@ -346,37 +348,45 @@ func TestSketchMemory(t *testing.T) {
 	}
 }
 
-// TestBinIndex checks the bin look-up against its definition, bin e·k + j
-// holding m·2^e with bound[j] ≤ m < bound[j+1], on random values and on
-// the bin ends themselves, for the one-comparison tables and the walking
-// table of the finest resolution.
+// TestBinIndex checks the bin look-up against its definition (binTable):
+// a normal x = m·2^e, 1 ≤ m < 2, in bin (e + 1023)·2^bits + j with
+// 1 + j·2^−bits ≤ m < 1 + (j+1)·2^−bits, a subnormal x in bin j with
+// j·2^−bits ≤ x·2^1022 < (j+1)·2^−bits; on random values, on the bin ends
+// themselves and on the extremes, at coarse, default and fine resolutions.
+// It also checks that the table's error bound is below the one asked.
 func TestBinIndex(t *testing.T) {
 	t.Parallel()
 	rng := rand.New(rand.NewPCG(1, 2))
 	for _, alpha := range []float64{0.1, 0.01, DefaultRelErr, 1e-6} {
 		tab := NewSketch(alpha).tab
+		if tab.relErr > alpha {
+			t.Errorf("α=%g: table bound %g", alpha, tab.relErr)
+		}
+		w := math.Ldexp(1, -int(tab.bits))
 		check := func(x float64) {
 			i := tab.index(x)
-			e := i / tab.k
-			j := i - e*tab.k
-			if j < 0 {
-				e, j = e-1, j+tab.k
-			}
+			be, j := i>>tab.bits, i&(1<<tab.bits-1)
+			a := float64(j) * w    // bin start: of m − 1, or of x·2^1022 for a subnormal
 			m, fe := math.Frexp(x) // x = m·2^fe, m in [0.5, 1)
-			m, fe = 2*m, fe-1
-			if fe != e || m < tab.bound[j] || m >= tab.bound[j+1] {
-				t.Fatalf("α=%g: x=%v in bin (e=%d, j=%d) = [%v, %v)·2^e; mantissa %v·2^%d", alpha, x, e, j, tab.bound[j], tab.bound[j+1], m, fe)
+			m, fe = 2*m-1, fe-1
+			if be == 0 {
+				m, fe = math.Ldexp(x, 1022), -1023
+			}
+			if fe != be-1023 || m < a || m >= a+w {
+				t.Fatalf("α=%g: x=%v in bin (be=%d, j=%d) = [%v, %v); holds %v at e=%d", alpha, x, be, j, a, a+w, m, fe)
 			}
 		}
 		for range 20000 {
 			check(math.Ldexp(1+rng.Float64(), rng.IntN(200)-100))
+			check(rng.Float64() * 0x1p-1022)
 		}
-		for j := 1; j < tab.k; j += max(1, tab.k/5000) {
-			b := tab.bound[j]
+		for j := 1; j < 1<<tab.bits; j += max(1, (1<<tab.bits)/5000) {
+			b := 1 + float64(j)*w
 			check(math.Ldexp(b, 7))
 			check(math.Ldexp(math.Nextafter(b, 0), -3))
 		}
-		check(5e-324) // subnormal
+		check(5e-324) // the smallest subnormal
+		check(0x1p-1022)
 		check(math.MaxFloat64)
 	}
 }
