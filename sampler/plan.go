@@ -159,11 +159,14 @@ func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32, per
 	inv := 1 / float64(len(col))
 	// Each 64-bit draw gives the offsets of two strata, 32 bits each: p
 	// is then resolved to 2^−32 of a stratum, below 10⁻¹⁴ for a batch.
-	k := 0
-	for ; k+1 < len(col); k += 2 {
+	// fk is float64(k), counted in floats (exact below 2^53) rather than
+	// converted; each half of u converts as a uint32, which costs one
+	// instruction where a uint64 costs several.
+	k, fk := 0, 0.0
+	for ; k+1 < len(col); k, fk = k+2, fk+2 {
 		u := rng.Uint64()
-		col[k] = (float64(k) + (float64(uint32(u))+0.5)*0x1p-32) * inv
-		col[k+1] = (float64(k+1) + (float64(u>>32)+0.5)*0x1p-32) * inv
+		col[k] = (fk + (float64(uint32(u))+0.5)*0x1p-32) * inv
+		col[k+1] = (fk + 1 + (float64(uint32(u>>32))+0.5)*0x1p-32) * inv
 	}
 	if k < len(col) {
 		col[k] = (float64(k) + open01(rng)) * inv
@@ -231,9 +234,11 @@ func shuffle(rng *rand.PCG, x []float64, y []int32) { fisherYates(rng, len(x), x
 // fisherYates is shuffle of n values, x and y; with x nil it only takes
 // the shuffle's draws from rng, and moves nothing.
 func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
-	var pool uint64 // unused 32-bit halves of a draw
-	have := 0
-	for i := n - 1; i > 0; i-- {
+	i, pool, have := n-1, uint64(0), 0 // pool: unused 32-bit halves of a draw
+	if x != nil && y == nil {
+		i, pool, have = shufflePairs(rng, x, i)
+	}
+	for ; i > 0; i-- {
 		bound := uint32(i + 1)
 		var m uint64
 		for {
@@ -256,6 +261,29 @@ func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
 			y[i], y[j] = y[j], y[i]
 		}
 	}
+}
+
+// shufflePairs is fisherYates of x[:i+1] from the top, two indices a
+// draw, in a loop without the pool's bookkeeping, for as long as both
+// halves of a draw are accepted at sight (Lemire's low part at least the
+// bound, which leaves no doubt). At a draw that might be rejected (a
+// chance of about (i+1)/2^32 an index) it stops, and returns the index it
+// reached with that draw as the pool of two halves, for fisherYates to
+// take on exactly as it would have; else it returns an index below 2 and
+// an empty pool. The moves and draws are fisherYates's.
+func shufflePairs(rng *rand.PCG, x []float64, i int) (int, uint64, int) {
+	for ; i >= 2 && i < len(x); i -= 2 {
+		u := rng.Uint64()
+		b1, b2 := uint64(i+1), uint64(i)
+		m1, m2 := uint64(uint32(u))*b1, (u>>32)*b2
+		if uint32(m1) < uint32(b1) || uint32(m2) < uint32(b2) {
+			return i, u, 2
+		}
+		j1, j2 := int(m1>>32), int(m2>>32) // j1 ≤ i, j2 ≤ i − 1
+		x[i], x[j1] = x[j1], x[i]
+		x[i-1], x[j2] = x[j2], x[i-1]
+	}
+	return i, 0, 0
 }
 
 // scoresCorrelation returns the correlation to induce among normal scores

@@ -291,6 +291,63 @@ func TestShuffleUniform(t *testing.T) {
 	}
 }
 
+// TestShufflePairsSameMoves holds fisherYates, whose values go two draws
+// a pair while no index might be rejected (shufflePairs), to the plain
+// loop of one index a half-draw (refFisherYates, the loop it replaced):
+// the same order of values and the same draws taken, for sizes from 1 to
+// a whole batch and many seeds. At a whole batch about half the shuffles
+// meet an index that might be rejected (each of the n indices with a
+// chance near i/2^32), so the hand-over to the plain loop is exercised;
+// the test counts those and fails if none occurred.
+func TestShufflePairsSameMoves(t *testing.T) {
+	t.Parallel()
+	handovers := 0
+	for seed := range uint64(40) {
+		for _, n := range []int{1, 2, 3, 4, 5, 100, 101, BatchSize} {
+			x, want := make([]float64, n), make([]float64, n)
+			for i := range x {
+				x[i], want[i] = float64(i), float64(i)
+			}
+			a, b := rand.NewPCG(seed, 3), rand.NewPCG(seed, 3)
+			if i, _, have := shufflePairs(rand.NewPCG(seed, 3), slices.Clone(x), n-1); have > 0 && i >= 2 {
+				handovers++
+			}
+			fisherYates(a, n, x, nil)
+			refFisherYates(b, n, want)
+			if !slices.Equal(x, want) || a.Uint64() != b.Uint64() {
+				t.Fatalf("seed %d, n %d: moves or draws differ from the plain loop", seed, n)
+			}
+		}
+	}
+	if handovers == 0 {
+		t.Error("no shuffle handed over to the plain loop; the test does not exercise it")
+	}
+}
+
+// refFisherYates is the plain loop of fisherYates for x alone, before
+// shufflePairs: each index from the next unused 32-bit half of a draw.
+func refFisherYates(rng *rand.PCG, n int, x []float64) {
+	var pool uint64
+	have := 0
+	for i := n - 1; i > 0; i-- {
+		bound := uint32(i + 1)
+		var m uint64
+		for {
+			if have == 0 {
+				pool, have = rng.Uint64(), 2
+			}
+			m = uint64(uint32(pool)) * uint64(bound)
+			pool >>= 32
+			have--
+			if lo := uint32(m); lo >= bound || lo >= -bound%bound {
+				break
+			}
+		}
+		j := int(m >> 32)
+		x[i], x[j] = x[j], x[i]
+	}
+}
+
 // TestSliceQuantiles checks that every distribution's Quantiles gives
 // exactly its Quantile, value by value.
 func TestSliceQuantiles(t *testing.T) {
