@@ -119,14 +119,27 @@ func (r *run) newLendingWorker(w int, lend *colPool) *worker {
 	// Buffers only where a batch needs them: somewhere for the draws and
 	// outputs that the run does not keep; the SI columns of inputs not in
 	// SI units (si) are made when first needed (see batch).
+	var nIn, nOut int
 	if r.keepIn == nil && lend == nil {
-		wk.localIn = columns(len(r.sampled), size)
+		nIn = len(r.sampled)
 	}
 	if r.exactOut == nil && lend == nil {
-		wk.localOut = columns(len(r.specs), size)
+		nOut = len(r.specs)
+	}
+	if nIn+nOut > 0 {
+		sets := columnSets(size, nIn, nOut)
+		wk.localIn, wk.localOut = nilIfNone(sets[0], nIn), nilIfNone(sets[1], nOut)
 	}
 	wk.ev, wk.cols = r.newEvaluator()
 	return wk
+}
+
+// nilIfNone returns cols, or nil if there were to be no columns (k = 0).
+func nilIfNone(cols [][]float64, k int) [][]float64 {
+	if k == 0 {
+		return nil
+	}
+	return cols
 }
 
 // borrow takes the worker's buffers for a batch from its lender, if it
@@ -225,6 +238,9 @@ func (wk *worker) newColumn() []float64 {
 // that is infinite or NaN, or −1.
 func toReportUnit(x []float64, sp OutputSpec) int {
 	inv, off := 1/sp.Scale, sp.Offset
+	if inv == 1 && off == 0 { // the identity: only the check
+		return firstNonFinite(x)
+	}
 	nan := 0.0 // becomes NaN, and stays so, at the first value not finite
 	for i, v := range x {
 		// The conversion rounds the product, so that it is not fused with

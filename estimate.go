@@ -121,14 +121,17 @@ func newRunGiven(c *checked, s *settings, given map[string]bool) *run {
 	if !s.noSensitivity {
 		r.sensN = min(s.firstRound(), SensitivityTrials)
 	}
+	var nIn, nOut int // sensitivity columns
 	if s.KeepSamples {
 		r.keepIn = columns(len(r.sampled), s.trials)
 	} else if r.sensN > 0 {
-		r.sensIn = columns(len(r.sampled), r.sensN)
+		nIn = len(r.sampled)
 	}
 	if !s.keepsOutputs() && r.sensN > 0 {
-		r.sensOut = columns(len(r.specs), r.sensN)
+		nOut = len(r.specs)
 	}
+	sens := columnSets(r.sensN, nIn, nOut)
+	r.sensIn, r.sensOut = nilIfNone(sens[0], nIn), nilIfNone(sens[1], nOut)
 	// A Latin hypercube without correlations knows the order of its draws:
 	// the sensitivity sample's inputs need no ranking when it is a whole
 	// batch.
@@ -351,14 +354,6 @@ var curveProbabilities = func() []float64 {
 	}
 	return q
 }()
-
-func columns(k, n int) [][]float64 {
-	c := make([][]float64, k)
-	for j := range c {
-		c[j] = make([]float64, n)
-	}
-	return c
-}
 
 // parallel calls f(0), ..., f(n−1) on at most workers goroutines.
 func parallel(n, workers int, f func(i int)) {
