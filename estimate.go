@@ -228,7 +228,7 @@ func (r *run) outputs() ([]Output, error) {
 	outs := make([]Output, len(r.specs))
 	if r.sketches != nil {
 		r.eachSummarised(func(j int) {
-			sk := mergeSketch(r.sketches, j)
+			sk := foldSketch(r.sketches, j)
 			outs[j] = Output{Spec: r.specs[j], Summary: sk.Summary(r.s.stat), Curve: sk.Quantiles(curveProbabilities)}
 		})
 		return r.copyMirrors(outs), nil

@@ -121,9 +121,11 @@ func (r *run) newSelection(w int) *selection {
 	}
 	for w := range sel.parts {
 		sel.parts[w] = make([]*stats.SelectorPart, len(r.specs))
-		for j, s := range sel.sels {
-			if s != nil {
-				sel.parts[w][j] = s.Part()
+	}
+	for j, s := range sel.sels {
+		if s != nil {
+			for w, p := range s.Parts(r.s.workers) {
+				sel.parts[w][j] = p
 			}
 		}
 	}
@@ -194,7 +196,7 @@ func (r *run) selectedOutputs() ([]Output, bool) {
 	outs := make([]Output, len(r.specs))
 	var missed atomic.Bool
 	r.eachSummarised(func(j int) {
-		sk := mergeSketch(r.sketches, j)
+		sk := foldSketch(r.sketches, j)
 		parts := make([]*stats.SelectorPart, len(r.selection.parts))
 		for w := range parts {
 			parts[w] = r.selection.parts[w][j]

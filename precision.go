@@ -69,6 +69,21 @@ func mergeSketches(per [][]*stats.Sketch) []*stats.Sketch {
 	return total
 }
 
+// foldSketch merges the sketches of output j of every other worker into
+// worker 0's, per[0][j], drops them (so that folding again changes
+// nothing), and returns it: for the run's final figures, after which no
+// batch adds to the workers' sketches. It saves the allocation of
+// mergeSketch's new sketch.
+func foldSketch(per [][]*stats.Sketch, j int) *stats.Sketch {
+	for w := 1; w < len(per); w++ {
+		if per[w][j] != nil {
+			per[0][j].Merge(per[w][j])
+			per[w][j] = nil
+		}
+	}
+	return per[0][j]
+}
+
 // mergeSketch returns the sketches of output j of every worker, per[w][j],
 // merged into a new one.
 func mergeSketch(per [][]*stats.Sketch, j int) *stats.Sketch {

@@ -29,6 +29,7 @@ type Selector struct {
 	level    float64
 	ranks    []int       // the order statistics needed, sorted
 	brackets [][2]uint64 // [lo, hi] in radix.Key order, sorted, disjoint, of whole sketch groups
+	expect   []int       // values each bracket should gather in the pass, from the pilot (0 if unknown)
 }
 
 // NewSelector returns a selector for a pass over n values that are not
@@ -84,6 +85,14 @@ func NewSketchSelector(n int, opt Options, pilot *Sketch) *Selector {
 		s.brackets = append(s.brackets, [2]uint64{lo, hi})
 	}
 	s.brackets = mergeBrackets(s.brackets)
+	s.expect = make([]int, len(s.brackets))
+	if m := int(pilot.n); m > 0 {
+		if _, inside, ok := pilot.bracketCounts(s.brackets); ok {
+			for b, c := range inside {
+				s.expect[b] = int(float64(c) / float64(m) * float64(n))
+			}
+		}
+	}
 	return s
 }
 
@@ -149,6 +158,22 @@ type SelectorPart struct {
 // Part returns a new part of the pass.
 func (s *Selector) Part() *SelectorPart {
 	return &SelectorPart{s: s, inside: make([][]float64, len(s.brackets))}
+}
+
+// Parts returns k new parts of the pass, for k goroutines that share it
+// about equally. Each has room for its share of the values the pilot
+// says each bracket will gather, and a tenth more, so that gathering
+// seldom grows a bracket's slice (a copy, and fresh memory to fault in).
+func (s *Selector) Parts(k int) []*SelectorPart {
+	parts := make([]*SelectorPart, k)
+	for i := range parts {
+		p := s.Part()
+		for b, e := range s.expect {
+			p.inside[b] = make([]float64, 0, e/k+e/(10*k)+64)
+		}
+		parts[i] = p
+	}
+	return parts
 }
 
 // AddSlice adds the values x. A NaN lies in no bracket, so NaNs are left

@@ -33,16 +33,32 @@ func TestSelectorMatchesSort(t *testing.T) {
 		sk := NewSketch(DefaultRelErr)
 		sk.AddSlice(x)
 		sel := NewSelector(n-countNaN(x), DefaultOptions, x[:65536])
-		parts := []*SelectorPart{sel.Part(), sel.Part(), sel.Part()}
-		for i := 0; i < n; i += 1000 { // interleaved chunks, as workers take batches
+		// Parts made one by one, and by Parts with room reserved from
+		// the pilot: the same figures.
+		for _, parts := range [][]*SelectorPart{{sel.Part(), sel.Part(), sel.Part()}, sel.Parts(3)} {
+			for i := 0; i < n; i += 1000 { // interleaved chunks, as workers take batches
+				parts[(i/1000)%3].AddSlice(x[i:min(i+1000, n)])
+			}
+			got, ok := sel.Summary(sk, parts)
+			if !ok {
+				t.Fatalf("n = %d: a rank fell outside its bracket", n)
+			}
+			if want := Summarize(slices.Clone(x), DefaultOptions); !identicalSummary(got, want) {
+				t.Errorf("n = %d:\ngot  %+v\nwant %+v", n, got, want)
+			}
+		}
+		// The pilot's estimate of what each bracket gathers is close to
+		// what it does (binomial error of a 65 536-value pilot: well
+		// within a quarter at these sizes).
+		_, inside, _ := sk.bracketCounts(sel.brackets)
+		for b, e := range sel.expect {
+			if c := float64(inside[b]); !(float64(e) > 0.75*c && float64(e) < 1.25*c) {
+				t.Errorf("n = %d, bracket %d: expected %d values from the pilot, gathered %d", n, b, e, inside[b])
+			}
+		}
+		parts := sel.Parts(3)
+		for i := 0; i < n; i += 1000 {
 			parts[(i/1000)%3].AddSlice(x[i:min(i+1000, n)])
-		}
-		got, ok := sel.Summary(sk, parts)
-		if !ok {
-			t.Fatalf("n = %d: a rank fell outside its bracket", n)
-		}
-		if want := Summarize(slices.Clone(x), DefaultOptions); !identicalSummary(got, want) {
-			t.Errorf("n = %d:\ngot  %+v\nwant %+v", n, got, want)
 		}
 		if len(sel.brackets) > 4 {
 			t.Errorf("n = %d: %d brackets; this case is meant for AddSlice's fast path", n, len(sel.brackets))
