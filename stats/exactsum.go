@@ -159,25 +159,33 @@ func (m *moments) addExps(xs []float64) {
 }
 
 // windowBinades is the number of binary exponents a window sum spans
-// (addWindow): a significand below 2^53 shifted by at most 11 stays below
-// 2^64.
-const windowBinades = 12
+// (addWindow): a significand below 2^53 shifted by at most 10 stays below
+// 2^63, so that it converts from a float64 to an int64 exactly.
+const windowBinades = 11
+
+// windowLeast is the least biased exponent of a window (addWindow): the
+// scale 2^(1075 − e0) is then a normal float64.
+const windowLeast = 52
 
 // addWindow adds xs, normal values of one sign (negative if neg) whose
-// biased exponents lie in [e0, e0 + windowBinades), at most accLimit of
-// them, straight to the limbs: each value is m·2^(be − 1075) for its
-// significand m and biased exponent be, so the sum of the values is
-// 2^(e0 − 1075)·Σ m·2^(be − e0), and of their squares
-// 2^(2·e0 − 2150)·Σ (m·2^(be − e0))², whose terms are below 2^64 and
-// 2^128, and whose sums, over at most 2^21 terms, below 2^85 and 2^149:
-// two and three 64-bit words, kept in registers. The limbs get the same
-// integers as from the exponent accumulators; the caller counts the
-// values (counted).
+// biased exponents lie in [e0, e0 + windowBinades), e0 ≥ windowLeast, at
+// most accLimit of them, straight to the limbs: each value is
+// m·2^(be − 1075) for its significand m and biased exponent be, so the sum
+// of the values is 2^(e0 − 1075)·Σ v and of their squares
+// 2^(2·e0 − 2150)·Σ v², with v = m·2^(be − e0) below 2^63 and v² below
+// 2^126, whose sums, over at most 2^21 terms, lie below 2^84 and 2^147:
+// two and three 64-bit words, kept in registers. v is |x|·2^(1075 − e0),
+// a power-of-two scaling and so exact, converted to an integer, also
+// exactly. The limbs get the same integers as from the exponent
+// accumulators; the caller counts the values (counted).
 func (m *moments) addWindow(xs []float64, e0 uint64, neg bool) {
-	var s0, s1, q0, q1, q2 uint64 // Σ v and Σ v², v = m·2^(be − e0)
+	scale := math.Ldexp(1, 1075-int(e0))
+	if neg {
+		scale = -scale
+	}
+	var s0, s1, q0, q1, q2 uint64 // Σ v and Σ v²
 	for _, x := range xs {
-		a := math.Float64bits(x)
-		v := (a&fracMask | 1<<52) << ((a>>52&0x7ff - e0) & 63)
+		v := uint64(int64(x * scale))
 		var c uint64
 		s0, c = bits.Add64(s0, v, 0)
 		s1 += c

@@ -53,7 +53,7 @@ const DefaultRelErr = 1e-4
 // Add costs a shift of the value's bits and a few integer additions.
 // AddSlice does the same work in two loops, one for the bins and one for
 // the sums, each without a call per value and with its state in
-// registers; the sums of a run of values of one sign within 12 binades
+// registers; the sums of a run of values of one sign within 11 binades
 // go straight to the exact accumulators (moments.addWindow). A Sketch is
 // not safe for concurrent use; give each goroutine its own and merge
 // them. The zero Sketch is not usable; use NewSketch.
@@ -180,7 +180,7 @@ func (s *Sketch) AddSlice(xs []float64) {
 // caller has reserved, to everything but the count of the moments'
 // accumulators, which the caller records. It is add, value by value, in
 // two loops: one counts the bins (binRun) and one sums (moments.addWindow
-// for a run of one sign within 12 binades, else moments.addExps), each
+// for a run of one sign within 11 binades, else moments.addExps), each
 // with its state in registers. Zeros, subnormals, infinities and NaNs go
 // through add instead, as a whole.
 func (s *Sketch) addRun(xs []float64) {
@@ -197,8 +197,9 @@ func (s *Sketch) addRun(xs []float64) {
 		s.max = hi
 	}
 	special := normal < uint64(len(xs))
-	if a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi)); !special && (lo > 0 || hi < 0) && max(a, b)>>52-min(a, b)>>52 < windowBinades {
-		s.mom.addWindow(xs, min(a, b)>>52, hi < 0)
+	a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi))
+	if e0 := min(a, b) >> 52; !special && (lo > 0 || hi < 0) && e0 >= windowLeast && max(a, b)>>52-e0 < windowBinades {
+		s.mom.addWindow(xs, e0, hi < 0)
 	} else {
 		s.mom.addExps(xs)
 	}

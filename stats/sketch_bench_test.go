@@ -7,7 +7,9 @@ import (
 
 // BenchmarkSketchAddSlice measures AddSlice per value on one batch of
 // 2^16 values (the size a run adds at a time) into a long-lived sketch:
-// lognormal values of one sign, and normal values of both signs.
+// lognormal values of one sign, spread over more binades than a window
+// sum takes (moments.addExps) and over fewer, as a reservoir's outputs
+// (moments.addWindow), and normal values of both signs.
 func BenchmarkSketchAddSlice(b *testing.B) {
 	const n = 1 << 16
 	for _, c := range []struct {
@@ -15,6 +17,7 @@ func BenchmarkSketchAddSlice(b *testing.B) {
 		x    []float64
 	}{
 		{"lognormal", lognormal(n, 40, 1, 1)},
+		{"lognormal-narrow", lognormal(n, 40, 0.3, 1)},
 		{"normal", normal(n, 0, 1, 2)},
 	} {
 		b.Run(c.name, func(b *testing.B) {

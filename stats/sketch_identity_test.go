@@ -144,10 +144,13 @@ func TestSketchAddFolds(t *testing.T) {
 		{"lognormal", lognormal(accLimit+12345, 40, 1, 7)},
 		{"largest significands", slices.Repeat([]float64{top, -top * 0x1p900, top * 0x1p-1000}, accLimit/3+777)},
 		{"negative", slices.Repeat([]float64{-top * 0x1p1000}, accLimit+3)},
-		// The widest window of addWindow (11 binades apart) at its
-		// largest significands, which bring its sums closest to 2^64
-		// and its sums of squares to 2^149.
-		{"window edges", slices.Repeat([]float64{top * 0x1p-20, top * 0x1p-9}, accLimit/2+5)},
+		// The widest window of addWindow (10 binades apart) at its
+		// largest significands, which bring its terms closest to 2^63
+		// and its sums of squares to 2^147; and a window of the least
+		// exponent it takes, and of the greatest.
+		{"window edges", slices.Repeat([]float64{top * 0x1p-20, top * 0x1p-10}, accLimit/2+5)},
+		{"window least", slices.Repeat([]float64{0x1p-971, top * 0x1p-962}, 1000)},
+		{"window greatest", slices.Repeat([]float64{-top * 0x1p1023, -0x1p1013}, 1000)},
 	} {
 		r := newRefSketch(DefaultRelErr)
 		r.AddSlice(tc.x)
