@@ -65,46 +65,48 @@ func (s *FluidScratch) HydrostaticColumn(n int, z Column) Column {
 // region 1 cannot represent is an error naming it.
 func (s *FluidScratch) LiquidProperties(n int, p, T Column) (rho, cp Column, err error) {
 	if p.Values == nil && T.Values == nil {
-		st, sat, err := liquidAt(p.Const, T.Const)
+		r, c, sat, err := liquidAt(p.Const, T.Const)
 		if err != nil {
 			return rho, cp, err
 		}
 		if sat {
 			s.Saturated += n
 		}
-		return Const(st.Density), Const(st.Cp), nil
+		return Const(r), Const(c), nil
 	}
 	d, c := grow(&s.density, n), grow(&s.heatCapacity, n)
 	for i := 0; i < n; i++ {
-		st, sat, err := liquidAt(p.At(i), T.At(i))
+		r, h, sat, err := liquidAt(p.At(i), T.At(i))
 		if err != nil {
 			return rho, cp, err
 		}
 		if sat {
 			s.Saturated++
 		}
-		d[i], c[i] = st.Density, st.Cp
+		d[i], c[i] = r, h
 	}
 	return Vary(d), Vary(c), nil
 }
 
-// liquidAt returns the region 1 state at (p, T), or saturated liquid at T
+// liquidAt returns the density, kg/m³, and isobaric heat capacity,
+// J/(kg·K), of the region 1 state at (p, T), or of saturated liquid at T
 // when p is below the saturation pressure (sat true).
-func liquidAt(p, T float64) (water.State, bool, error) {
-	st, sat, err := water.LiquidOrSaturated(p, T)
+func liquidAt(p, T float64) (rho, cp float64, sat bool, err error) {
+	rho, cp, sat, err = water.LiquidOrSaturatedDensityCp(p, T)
 	if err != nil {
-		return st, false, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
+		return 0, 0, false, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
 	}
-	return st, sat, nil
+	return rho, cp, sat, nil
 }
 
 // ExergyEfficiency returns, for each of n trials, the electric energy per
 // joule of recoverable heat by the exergy route of USGS Circular 790,
 // ηu·W/Qr, written into s: W/Qr from ExergyFraction, with the wellhead
-// fluid saturated liquid at the reservoir temperature tr and the dead state
-// liquid at the reference temperature tref and one standard atmosphere
-// (IAPWS-IF97), temperatures in K, and etaU the utilization efficiency, a
-// fraction. A trial with tr ≤ tref gets 0 (it holds no heat).
+// fluid saturated liquid at the reservoir temperature tr (IAPWS-IF97,
+// through a table of it: satLiquidTable) and the dead state liquid at the
+// reference temperature tref and one standard atmosphere (IAPWS-IF97),
+// temperatures in K, and etaU the utilization efficiency, a fraction. A
+// trial with tr ≤ tref gets 0 (it holds no heat).
 func (s *FluidScratch) ExergyEfficiency(n int, etaU, tr, tref Column) (Column, error) {
 	out := grow(&s.efficiency, n)
 	var dead water.State
@@ -120,7 +122,7 @@ func (s *FluidScratch) ExergyEfficiency(n int, etaU, tr, tref Column) (Column, e
 			out[i] = 0
 			continue
 		}
-		wh, err := water.SaturatedLiquid(t)
+		wh, ws, err := saturatedLiquidHS(t)
 		if err != nil {
 			return Column{}, fmt.Errorf("wellhead fluid at %.2f °C: %w", t-celsiusZero, err)
 		}
@@ -129,7 +131,7 @@ func (s *FluidScratch) ExergyEfficiency(n int, etaU, tr, tref Column) (Column, e
 				return Column{}, err
 			}
 		}
-		out[i] = etaU.At(i) * ExergyFraction(wh.Enthalpy, wh.Entropy, dead.Enthalpy, dead.Entropy, t0)
+		out[i] = etaU.At(i) * ExergyFraction(wh, ws, dead.Enthalpy, dead.Entropy, t0)
 	}
 	return Vary(out), nil
 }

@@ -42,6 +42,24 @@ func LiquidOrSaturated(p, T float64) (st State, saturated bool, err error) {
 	return st, false, err
 }
 
+// LiquidOrSaturatedDensityCp returns the density, kg/m³, and isobaric heat
+// capacity, J/(kg·K), of LiquidOrSaturated's state at (p, T), with the
+// same saturated flag and error: the same bits as its State's Density and
+// Cp, at two thirds of the cost, for a model that needs only those two.
+func LiquidOrSaturatedDensityCp(p, T float64) (rho, cp float64, saturated bool, err error) {
+	if p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature {
+		ps := saturationPressure(T)
+		if p >= ps {
+			rho, cp = region1DensityCp(p, T)
+			return rho, cp, false, nil
+		}
+		rho, cp = region1DensityCp(ps, T)
+		return rho, cp, true, nil
+	}
+	_, err = Liquid(p, T)
+	return 0, 0, false, err
+}
+
 // steamErr is Liquid's error for a state on the steam side of saturation,
 // p < ps = p_s(T).
 func steamErr(p, T, ps float64) error {

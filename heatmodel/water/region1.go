@@ -85,19 +85,23 @@ var r1 = func() []gibbsTerm {
 	return makeTerms(I, J, n)
 }()
 
-// gibbs1 returns the sums of Σ nᵢ x^Iᵢ y^Jᵢ weighted by 1, I, I(I−1), J,
-// J(J−1) and IJ, with x = 7.1 − π, y = τ − 1.222 and iy = 1/y; the
-// derivatives of γ follow by dividing by powers of x and y.
-func gibbs1(x, y, iy float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
+// r1Powers holds x^I for I = 0 … r1MaxI and y^J for J = r1MinJ … r1MaxJ.
+type r1Powers struct {
+	x [r1MaxI + 1]float64
+	y [r1MaxJ - r1MinJ + 1]float64 // y[J − r1MinJ] = y^J
+}
+
+// powers1 fills pw with the powers of x, y and iy = 1/y that region 1's
+// terms take.
+func powers1(x, y, iy float64, pw *r1Powers) {
 	// Power tables, built by running products kept in registers (a loop
 	// that reads back the previous entry is several times slower); the
 	// two chains of 1/y, odd and even powers, run side by side.
-	var px [r1MaxI + 1]float64
+	px, py := &pw.x, &pw.y
 	for k, v := 0, 1.0; k <= r1MaxI; k++ {
 		px[k] = v
 		v *= x
 	}
-	var py [r1MaxJ - r1MinJ + 1]float64 // py[J − r1MinJ] = y^J
 	for k, v := 0, 1.0; k <= r1MaxJ; k++ {
 		py[k-r1MinJ] = v
 		v *= y
@@ -112,15 +116,38 @@ func gibbs1(x, y, iy float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
 			py[0] = odd // y^r1MinJ, the odd power left over
 		}
 	}
+}
+
+// gibbs1 returns the sums of Σ nᵢ x^Iᵢ y^Jᵢ weighted by 1, I, I(I−1), J,
+// J(J−1) and IJ, with x = 7.1 − π, y = τ − 1.222 and iy = 1/y; the
+// derivatives of γ follow by dividing by powers of x and y.
+func gibbs1(x, y, iy float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
+	var pw r1Powers
+	powers1(x, y, iy, &pw)
 	for k := range r1 {
 		t := &r1[k]
-		v := px[t.i] * py[t.j-r1MinJ]
+		v := pw.x[t.i] * pw.y[t.j-r1MinJ]
 		s += t.n * v
 		sI += t.nI * v
 		sII += t.nII * v
 		sJ += t.nJ * v
 		sJJ += t.nJJ * v
 		sIJ += t.nIJ * v
+	}
+	return
+}
+
+// gibbs1IJJ is gibbs1's sums weighted by I and by J(J−1) alone, the same
+// bits (the same terms added in the same order), at two thirds of the
+// cost: what the density and the isobaric heat capacity need.
+func gibbs1IJJ(x, y, iy float64) (sI, sJJ float64) {
+	var pw r1Powers
+	powers1(x, y, iy, &pw)
+	for k := range r1 {
+		t := &r1[k]
+		v := pw.x[t.i] * pw.y[t.j-r1MinJ]
+		sI += t.nI * v
+		sJJ += t.nJJ * v
 	}
 	return
 }
@@ -157,6 +184,23 @@ func region1(p, T float64) State {
 		Cp:             -GasConstant * tt * gtt,
 		SoundSpeed:     sqrt(RT * gp * gp / (d*d/(tt*gtt) - gpp)),
 	}
+}
+
+// region1DensityCp is region1's density, kg/m³, and isobaric heat
+// capacity, J/(kg·K), alone: the same expressions, so the same bits, from
+// the only two sums they need.
+func region1DensityCp(p, T float64) (rho, cp float64) {
+	pi := p * (1 / r1PStar)
+	tau := r1TStar / T
+	x := 7.1 - pi
+	y := tau - 1.222
+	ix, iy := 1/x, 1/y
+	sI, sJJ := gibbs1IJJ(x, y, iy)
+	gp := -sI * ix
+	gtt := sJJ * iy * iy
+	v := (GasConstant / r1PStar) * T * gp
+	tt := tau * tau
+	return 1 / v, -GasConstant * tt * gtt
 }
 
 // Region1 returns the state of compressed liquid water at pressure p in Pa
