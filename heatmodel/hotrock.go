@@ -16,9 +16,10 @@ func (h *HotRock) exponentialTrial(i int, p Profile, z1, z2 float64, out HotRock
 	tau := TimeConstant(z1, z2, rhoR, cR, h.Flux.At(i), h.WaterDensity.At(i), h.WaterHeatCapacity.At(i))
 	out.HeatInPlace[i] = e0
 	out.TimeConstant[i] = tau
-	out.InitialPower[i] = HeatMiningPower(e0, tau, 0)
+	p0 := e0 / tau
+	out.InitialPower[i] = decline(p0, tau, 0)
 	for k, t := range h.ReportTimes {
-		out.PowerAt[k][i] = HeatMiningPower(e0, tau, t)
+		out.PowerAt[k][i] = decline(p0, tau, t)
 	}
 	out.Recovered[i] = HeatMined(e0, tau, h.Life.At(i))
 }
@@ -131,11 +132,16 @@ func TimeConstant(z1, z2, rockDensity, rockHeatCapacity, flux, waterDensity, wat
 // from useful heat e0 with time constant tau, s: P(t) = (e0/τ)·e^(−t/τ)
 // (Armstead & Tester 1987, "Heat Mining"; renewable-energy textbooks).
 // The unit is that of e0 per second: W for e0 in J, W/m² for J/m².
-func HeatMiningPower(e0, tau, t float64) float64 {
+func HeatMiningPower(e0, tau, t float64) float64 { return decline(e0/tau, tau, t) }
+
+// decline is HeatMiningPower from the initial power p0 = e0/τ, so that a
+// trial's powers at several times divide once: p0·e^(−t/τ), the same
+// operations.
+func decline(p0, tau, t float64) float64 {
 	if t == 0 && tau != 0 { // (at τ = 0 the formula gives NaN, kept)
-		return e0 / tau // e^(−0) = 1 exactly: the same value, without the exponential
+		return p0 // e^(−0) = 1 exactly: the same value, without the exponential
 	}
-	return e0 / tau * math.Exp(-t/tau)
+	return p0 * math.Exp(-t/tau)
 }
 
 // HeatMined returns the heat extracted by time t, s, from useful heat e0
