@@ -122,8 +122,12 @@ func addBits(acc *[exponents]expAcc, u uint64) {
 	if be == 0 { // subnormal or zero: no implicit bit
 		m = u & (1<<52 - 1)
 	}
-	a := &acc[be]
-	neg := int64(u) >> 63 // −1 for a negative value
+	acc[be].add(m, int64(u)>>63)
+}
+
+// add adds the significand m, negated if neg is −1 (0 for a positive
+// value), and its square.
+func (a *expAcc) add(m uint64, neg int64) {
 	sm := uint64((int64(m) ^ neg) - neg)
 	var c uint64
 	a.sumLo, c = bits.Add64(a.sumLo, sm, 0)
@@ -145,16 +149,7 @@ func (m *moments) addExps(xs []float64) {
 		}
 		// As addBits for a normal value, whose significand has its
 		// implicit bit.
-		mant := a&fracMask | 1<<52
-		e := &acc[a>>52]
-		neg := int64(u) >> 63 // −1 for a negative value
-		sm := uint64((int64(mant) ^ neg) - neg)
-		var c uint64
-		e.sumLo, c = bits.Add64(e.sumLo, sm, 0)
-		e.sumHi += uint64(neg) + c
-		sh, sl := bits.Mul64(mant, mant)
-		e.sqLo, c = bits.Add64(e.sqLo, sl, 0)
-		e.sqHi += sh + c
+		acc[a>>52].add(a&fracMask|1<<52, int64(u)>>63)
 	}
 }
 

@@ -125,8 +125,7 @@ func gibbs1(x, y, iy float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
 	var pw r1Powers
 	powers1(x, y, iy, &pw)
 	for k := range r1 {
-		t := &r1[k]
-		v := pw.x[t.i] * pw.y[t.j-r1MinJ]
+		t, v := pw.term(k)
 		s += t.n * v
 		sI += t.nI * v
 		sII += t.nII * v
@@ -144,12 +143,17 @@ func gibbs1IJJ(x, y, iy float64) (sI, sJJ float64) {
 	var pw r1Powers
 	powers1(x, y, iy, &pw)
 	for k := range r1 {
-		t := &r1[k]
-		v := pw.x[t.i] * pw.y[t.j-r1MinJ]
+		t, v := pw.term(k)
 		sI += t.nI * v
 		sJJ += t.nJJ * v
 	}
 	return
+}
+
+// term returns region 1's term k and x^I·y^J for it.
+func (pw *r1Powers) term(k int) (*gibbsTerm, float64) {
+	t := &r1[k]
+	return t, pw.x[t.i] * pw.y[t.j-r1MinJ]
 }
 
 // region1 evaluates region 1 without checking the range of validity.
