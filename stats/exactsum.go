@@ -137,6 +137,20 @@ func (a *expAcc) add(m uint64, neg int64) {
 	a.sqHi += hi + c
 }
 
+// addNormals adds the normal values of xs, whose least and greatest are lo
+// and hi, to the sums (the others are left out; others says whether xs
+// holds any but zeros, which add nothing to a sum): by addWindow if they
+// are all of one sign within its window, else by addExps. The caller
+// counts them (n, counted).
+func (m *moments) addNormals(xs []float64, lo, hi float64, others bool) {
+	a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi))
+	if e0 := min(a, b) >> 52; !others && (lo > 0 || hi < 0) && e0 >= windowLeast && max(a, b)>>52-e0 < windowBinades {
+		m.addWindow(xs, e0, hi < 0)
+	} else {
+		m.addExps(xs)
+	}
+}
+
 // addExps adds the normal values of xs (the others are left out) to the
 // exponent accumulators; the caller counts them (counted).
 func (m *moments) addExps(xs []float64) {
@@ -162,7 +176,8 @@ const windowBinades = 11
 // scale 2^(1075 − e0) is then a normal float64.
 const windowLeast = 52
 
-// addWindow adds xs, normal values of one sign (negative if neg) whose
+// addWindow adds xs, normal values of one sign (negative if neg), and
+// zeros (whose terms are 0), whose
 // biased exponents lie in [e0, e0 + windowBinades), e0 ≥ windowLeast, at
 // most accLimit of them, straight to the limbs: each value is
 // m·2^(be − 1075) for its significand m and biased exponent be, so the sum
@@ -353,11 +368,35 @@ func NewMean() *Mean { return &Mean{m: newMoments()} }
 
 // AddSlice adds every value of xs but NaNs.
 func (a *Mean) AddSlice(xs []float64) {
-	for _, x := range xs {
-		if x == x {
-			a.m.add(x)
-		}
+	for len(xs) > 0 {
+		k := min(len(xs), a.m.room())
+		a.m.addSlice(xs[:k])
+		xs = xs[k:]
 	}
+}
+
+// addSlice adds xs, at most room() values, but NaNs, as add would one by
+// one: the normal values in one loop (addNormals), the others by add.
+func (m *moments) addSlice(xs []float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	normal, odd := 0, false
+	for _, x := range xs {
+		if !isNormal(math.Float64bits(x) &^ (1 << 63)) {
+			if x == x {
+				m.add(x)
+			}
+			odd = odd || x != 0
+			continue
+		}
+		normal++
+		lo, hi = min(lo, x), max(hi, x)
+	}
+	if normal == 0 {
+		return
+	}
+	m.addNormals(xs, lo, hi, odd)
+	m.n += int64(normal)
+	m.counted(normal)
 }
 
 // Merge adds the values of o to a; o is not changed.

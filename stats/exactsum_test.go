@@ -228,6 +228,21 @@ func TestMeanMatchesSketch(t *testing.T) {
 	if got := Summarize(x, Options{}).Mean; math.Float64bits(got) != math.Float64bits(want) {
 		t.Errorf("Summarize %v, Sketch %v", got, want)
 	}
+	// A risked output: values of one sign in a narrow range (summed in a
+	// window) and zeros, against the reference copy of the sums, bit for
+	// bit, added in runs as AddSlice is called.
+	risked := withZeros(lognormal(70000, 2, 0.3, 6), true)
+	ref := newRefMoments()
+	m := NewMean()
+	for i, v := range risked {
+		ref.add(v)
+		if i%10000 == 9999 {
+			m.AddSlice(risked[i-9999 : i+1])
+		}
+	}
+	if got, want := m.Value(), func() float64 { v, _ := ref.meanSD(); return v }(); math.Float64bits(got) != math.Float64bits(want) {
+		t.Errorf("risked-like values: Mean %v, reference sums %v", got, want)
+	}
 	inf := NewMean()
 	inf.AddSlice([]float64{1, math.Inf(1), 2})
 	if got := inf.Value(); !math.IsInf(got, 1) {

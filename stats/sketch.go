@@ -185,7 +185,7 @@ func (s *Sketch) AddSlice(xs []float64) {
 // through add instead, as a whole.
 func (s *Sketch) addRun(xs []float64) {
 	before := s.n + s.nan // counts of the values that go through add
-	lo, hi := s.binRun(xs)
+	lo, hi, odd := s.binRun(xs)
 	normal := uint64(len(xs)) - (s.n + s.nan - before)
 	if normal == 0 {
 		return
@@ -196,22 +196,17 @@ func (s *Sketch) addRun(xs []float64) {
 	if keyLess(s.max, hi) {
 		s.max = hi
 	}
-	special := normal < uint64(len(xs))
-	a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi))
-	if e0 := min(a, b) >> 52; !special && (lo > 0 || hi < 0) && e0 >= windowLeast && max(a, b)>>52-e0 < windowBinades {
-		s.mom.addWindow(xs, e0, hi < 0)
-	} else {
-		s.mom.addExps(xs)
-	}
+	s.mom.addNormals(xs, lo, hi, odd)
 	s.n += normal
 	s.mom.n += int64(normal)
 }
 
 // binRun counts the normal values of xs in the bins, hands the others to
 // add, and returns the least and greatest normal value (+Inf and −Inf if
-// none). Runs of values of one sign go through countSigned; values of
-// mixed signs, once a run of one sign proves short, through countBins.
-func (s *Sketch) binRun(xs []float64) (lo, hi float64) {
+// none) and whether it met any value but a normal one or a zero. Runs of
+// values of one sign go through countSigned; values of mixed signs, once
+// a run of one sign proves short, through countBins.
+func (s *Sketch) binRun(xs []float64) (lo, hi float64, odd bool) {
 	lo, hi = math.Inf(1), math.Inf(-1)
 	mixed := false
 	for len(xs) > 0 {
@@ -233,6 +228,7 @@ func (s *Sketch) binRun(xs []float64) (lo, hi float64) {
 		switch a := math.Float64bits(x) &^ (1 << 63); {
 		case !isNormal(a):
 			s.add(x) // counts a subnormal once more towards the next fold: it only comes sooner
+			odd = odd || x != 0
 		case x > 0:
 			s.pos.inc(s.tab.index(x))
 			lo, hi = min(lo, x), max(hi, x)
@@ -242,7 +238,7 @@ func (s *Sketch) binRun(xs []float64) (lo, hi float64) {
 		}
 		xs = xs[k+1:]
 	}
-	return lo, hi
+	return lo, hi, odd
 }
 
 // countRun counts, by countSigned, the leading values of xs that have the

@@ -106,6 +106,7 @@ func TestSketchAddIdentical(t *testing.T) {
 		// Narrow ranges of one sign, whose sums go through addWindow.
 		{"lognormal narrow", lognormal(1e5, 40, 0.3, 7), DefaultRelErr},
 		{"negative narrow", negate(lognormal(1e5, -3, 0.3, 8)), DefaultRelErr},
+		{"narrow with zeros", withZeros(lognormal(1e5, 40, 0.3, 9), false), DefaultRelErr},
 		{"normal", normal(1e5, 0, 1, 2), DefaultRelErr},
 		{"normal fine", normal(3e4, 5, 1, 3), 1e-6},
 		{"adversarial", adversarial(3e4, 4), 0.1},
@@ -187,6 +188,22 @@ func TestSketchMergeIdentical(t *testing.T) {
 func negate(x []float64) []float64 {
 	for i := range x {
 		x[i] = -x[i]
+	}
+	return x
+}
+
+// withZeros returns x with every seventh value +0, as a risked output
+// holds where a prospect fails, and if negZero every 1000th −0, in place.
+// (The reference copy of Add orders −0 and +0 as equal, so its minimum
+// may be either.)
+func withZeros(x []float64, negZero bool) []float64 {
+	for i := range x {
+		switch {
+		case negZero && i%1000 == 3:
+			x[i] = math.Copysign(0, -1)
+		case i%7 == 0:
+			x[i] = 0
+		}
 	}
 	return x
 }
