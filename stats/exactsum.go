@@ -158,7 +158,7 @@ func (m *moments) addExps(xs []float64) {
 	for _, x := range xs {
 		u := math.Float64bits(x)
 		a := u &^ (1 << 63)
-		if a-1<<52 >= 0x7ff0_0000_0000_0000-1<<52 { // not normal
+		if !isNormal(a) {
 			continue
 		}
 		// As addBits for a normal value, whose significand has its
@@ -176,10 +176,10 @@ const windowBinades = 11
 // scale 2^(1075 − e0) is then a normal float64.
 const windowLeast = 52
 
-// addWindow adds xs, normal values of one sign (negative if neg), and
-// zeros (whose terms are 0), whose
-// biased exponents lie in [e0, e0 + windowBinades), e0 ≥ windowLeast, at
-// most accLimit of them, straight to the limbs: each value is
+// addWindow adds xs, at most accLimit values, straight to the limbs:
+// normal values of one sign (negative if neg) whose biased exponents lie
+// in [e0, e0 + windowBinades), e0 ≥ windowLeast, and zeros, whose terms
+// are 0. Each value is
 // m·2^(be − 1075) for its significand m and biased exponent be, so the sum
 // of the values is 2^(e0 − 1075)·Σ v and of their squares
 // 2^(2·e0 − 2150)·Σ v², with v = m·2^(be − e0) below 2^63 and v² below

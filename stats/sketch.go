@@ -215,8 +215,10 @@ func (s *Sketch) binRun(xs []float64) (lo, hi float64, odd bool) {
 			k, lo, hi = countBins(&s.pos, &s.neg, s.tab.shift, xs, lo, hi)
 		} else {
 			k, lo, hi = s.countRun(xs, lo, hi)
-			// A run of one sign cut short by a value of the other:
-			mixed = k < 16 && k < len(xs) && math.Signbit(xs[k]) != math.Signbit(xs[0]) &&
+			// A run of one sign cut short, after fewer than shortRun
+			// values, by a normal value of the other sign: the signs
+			// alternate too often for countRun's restarts to pay.
+			mixed = k < shortRun && k < len(xs) && math.Signbit(xs[k]) != math.Signbit(xs[0]) &&
 				isNormal(math.Float64bits(xs[k])&^(1<<63))
 		}
 		if k == len(xs) {
@@ -240,6 +242,10 @@ func (s *Sketch) binRun(xs []float64) (lo, hi float64, odd bool) {
 	}
 	return lo, hi, odd
 }
+
+// shortRun is the length below which a run of one sign, ended by the
+// other sign, sends the rest of binRun's values to countBins.
+const shortRun = 16
 
 // countRun counts, by countSigned, the leading values of xs that have the
 // sign of the first, and returns the index where it stopped and the
