@@ -232,13 +232,19 @@ func quantiles(d Distribution, ps []float64) {
 func shuffle(rng *rand.PCG, x []float64, y []int32) { fisherYates(rng, len(x), x, y) }
 
 // fisherYates is shuffle of n values, x and y; with x nil it only takes
-// the shuffle's draws from rng, and moves nothing.
+// the shuffle's draws from rng, and moves nothing. Where x goes alone,
+// each index that starts a fresh draw goes to shufflePairs, which takes
+// the indices two a draw for as long as none might be rejected; the plain
+// loop below takes the indices of a doubtful draw, then hands back.
 func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
+	pairs := x != nil && y == nil
 	i, pool, have := n-1, uint64(0), 0 // pool: unused 32-bit halves of a draw
-	if x != nil && y == nil {
-		i, pool, have = shufflePairs(rng, x, i)
-	}
-	for ; i > 0; i-- {
+	for i > 0 {
+		if have == 0 && pairs {
+			if i, pool, have = shufflePairs(rng, x, i); i <= 0 {
+				return
+			}
+		}
 		bound := uint32(i + 1)
 		var m uint64
 		for {
@@ -252,14 +258,14 @@ func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
 				break
 			}
 		}
-		if x == nil {
-			continue
+		if x != nil {
+			j := int(m >> 32)
+			x[i], x[j] = x[j], x[i]
+			if y != nil {
+				y[i], y[j] = y[j], y[i]
+			}
 		}
-		j := int(m >> 32)
-		x[i], x[j] = x[j], x[i]
-		if y != nil {
-			y[i], y[j] = y[j], y[i]
-		}
+		i--
 	}
 }
 

@@ -297,8 +297,9 @@ func TestShuffleUniform(t *testing.T) {
 // the same order of values and the same draws taken, for sizes from 1 to
 // a whole batch and many seeds. At a whole batch about half the shuffles
 // meet an index that might be rejected (each of the n indices with a
-// chance near i/2^32), so the hand-over to the plain loop is exercised;
-// the test counts those and fails if none occurred.
+// chance near i/2^32), so the hand-over to the plain loop, and back to
+// the pairs after the doubtful draw, is exercised; the test counts those
+// and fails if none occurred.
 func TestShufflePairsSameMoves(t *testing.T) {
 	t.Parallel()
 	handovers := 0
