@@ -1,13 +1,12 @@
 package sampler
 
 import (
-	"math/rand/v2"
 	"testing"
 )
 
 // benchProbs returns n probabilities in (0, 1) drawn as Fill draws them.
 func benchProbs(n int) []float64 {
-	rng := rand.NewPCG(1, 1)
+	rng := newPCG(1, 1)
 	p := make([]float64, n)
 	for i := range p {
 		p[i] = open01(rng)

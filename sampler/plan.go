@@ -105,8 +105,9 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 		panic(fmt.Sprintf("sampler: Fill with %d columns and %d rank columns for %d distributions", len(cols), len(ranks), len(p.dists)))
 	}
 	_, n := p.BatchRange(b)
-	// The PCG itself, not a rand.Rand round it, so that its draws inline.
-	rng := rand.NewPCG(p.seed, batchStream|uint64(b))
+	// rand.PCG's stream, drawn by the sampler's copy of it (pcg), which
+	// inlines and takes draws two at a time.
+	rng := newPCG(p.seed, batchStream|uint64(b))
 	for j, d := range p.dists {
 		col := cols[j][:n]
 		if p.method == Random {
@@ -155,14 +156,26 @@ func (p *Plan) reorders(n int) bool { return p.corr != nil && len(p.dists) > 1 &
 // If ranks is not nil (as long as col), stratified also writes the
 // doubled rank of each draw there (see FillRanked) and reports whether
 // it could: whether the quantiles do not decrease with the stratum.
-func stratified(rng *rand.PCG, d Distribution, col []float64, ranks []int32, permute bool) bool {
+func stratified(rng *pcg, d Distribution, col []float64, ranks []int32, permute bool) bool {
 	inv := 1 / float64(len(col))
 	// Each 64-bit draw gives the offsets of two strata, 32 bits each: p
 	// is then resolved to 2^−32 of a stratum, below 10⁻¹⁴ for a batch.
 	// fk is float64(k), counted in floats (exact below 2^53) rather than
 	// converted; each half of u converts as a uint32, which costs one
 	// instruction where a uint64 costs several.
-	k, fk := 0, 0.0
+	// Two draws at a time (pcg.next2), four strata, then one draw for two.
+	k, fk, s := 0, 0.0, *rng
+	for ; k+3 < len(col); k, fk = k+4, fk+4 {
+		s1, s2 := s.next(), s.next2()
+		u, v := s1.out(), s2.out()
+		s = s2
+		c := col[k : k+4 : k+4]
+		c[0] = (fk + (float64(uint32(u))+0.5)*0x1p-32) * inv
+		c[1] = (fk + 1 + (float64(uint32(u>>32))+0.5)*0x1p-32) * inv
+		c[2] = (fk + 2 + (float64(uint32(v))+0.5)*0x1p-32) * inv
+		c[3] = (fk + 3 + (float64(uint32(v>>32))+0.5)*0x1p-32) * inv
+	}
+	*rng = s
 	for ; k+1 < len(col); k, fk = k+2, fk+2 {
 		u := rng.Uint64()
 		col[k] = (fk + (float64(uint32(u))+0.5)*0x1p-32) * inv
@@ -229,14 +242,14 @@ func quantiles(d Distribution, ps []float64) {
 // drawn by Lemire's multiply-and-reject method (Lemire 2019, "Fast random
 // integer generation in an interval"), exact, from one 32-bit half of a
 // 64-bit draw. y, if not nil, is put in the same order.
-func shuffle(rng *rand.PCG, x []float64, y []int32) { fisherYates(rng, len(x), x, y) }
+func shuffle(rng *pcg, x []float64, y []int32) { fisherYates(rng, len(x), x, y) }
 
 // fisherYates is shuffle of n values, x and y; with x nil it only takes
 // the shuffle's draws from rng, and moves nothing. Where x goes alone,
 // each index that starts a fresh draw goes to shufflePairs, which takes
 // the indices two a draw for as long as none might be rejected; the plain
 // loop below takes the indices of a doubtful draw, then hands back.
-func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
+func fisherYates(rng *pcg, n int, x []float64, y []int32) {
 	pairs := x != nil && y == nil
 	i, pool, have := n-1, uint64(0), 0 // pool: unused 32-bit halves of a draw
 	for i > 0 {
@@ -276,8 +289,34 @@ func fisherYates(rng *rand.PCG, n int, x []float64, y []int32) {
 // chance of about (i+1)/2^32 an index) it stops, and returns the index it
 // reached with that draw as the pool of two halves, for fisherYates to
 // take on exactly as it would have; else it returns an index below 2 and
-// an empty pool. The moves and draws are fisherYates's.
-func shufflePairs(rng *rand.PCG, x []float64, i int) (int, uint64, int) {
+// an empty pool. The moves and draws are fisherYates's. While four
+// indices remain it takes two draws at a time (pcg.next2), its state in
+// a local value.
+func shufflePairs(rng *pcg, x []float64, i int) (int, uint64, int) {
+	s := *rng
+	for ; i >= 4 && i < len(x); i -= 4 {
+		s1, s2 := s.next(), s.next2()
+		u, v := s1.out(), s2.out()
+		b1, b2, b3, b4 := uint64(i+1), uint64(i), uint64(i-1), uint64(i-2)
+		m1, m2 := uint64(uint32(u))*b1, (u>>32)*b2
+		m3, m4 := uint64(uint32(v))*b3, (v>>32)*b4
+		if uint32(m1) < uint32(b1) || uint32(m2) < uint32(b2) {
+			*rng = s1
+			return i, u, 2
+		}
+		j1, j2 := int(m1>>32), int(m2>>32) // j1 ≤ i, j2 ≤ i − 1
+		x[i], x[j1] = x[j1], x[i]
+		x[i-1], x[j2] = x[j2], x[i-1]
+		if uint32(m3) < uint32(b3) || uint32(m4) < uint32(b4) {
+			*rng = s2
+			return i - 2, v, 2
+		}
+		j3, j4 := int(m3>>32), int(m4>>32)
+		x[i-2], x[j3] = x[j3], x[i-2]
+		x[i-3], x[j4] = x[j4], x[i-3]
+		s = s2
+	}
+	*rng = s
 	for ; i >= 2 && i < len(x); i -= 2 {
 		u := rng.Uint64()
 		b1, b2 := uint64(i+1), uint64(i)
@@ -321,6 +360,6 @@ func scoresCorrelation(target *mat.SymDense) *mat.SymDense {
 // open01 returns a uniform draw from the open interval (0, 1): the
 // midpoints of the 2^53 equal cells of [0, 1). It never returns 0 or 1,
 // so no draw lands on an infinite tail or on a distribution's open limit.
-func open01(rng *rand.PCG) float64 {
+func open01(rng *pcg) float64 {
 	return (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53
 }

@@ -181,7 +181,7 @@ func TestCorrelatedLHSOrder(t *testing.T) {
 		if err := p.Fill(b, got); err != nil {
 			t.Fatal(err)
 		}
-		rng := rand.NewPCG(4, batchStream|uint64(b))
+		rng := newPCG(4, batchStream|uint64(b))
 		for j, d := range dists {
 			stratified(rng, d, want[j], nil, true)
 		}
@@ -268,7 +268,7 @@ func TestPlanRankCorrelation(t *testing.T) {
 // 65.5, from the chi-square quantile of gonum's distuv.ChiSquared).
 func TestShuffleUniform(t *testing.T) {
 	t.Parallel()
-	rng := rand.NewPCG(5, 6)
+	rng := newPCG(5, 6)
 	counts := map[[4]float64]int{}
 	const draws = 240_000
 	perm := make([]float64, 4)
@@ -291,27 +291,28 @@ func TestShuffleUniform(t *testing.T) {
 	}
 }
 
-// TestShufflePairsSameMoves holds fisherYates, whose values go two draws
-// a pair while no index might be rejected (shufflePairs), to the plain
-// loop of one index a half-draw (refFisherYates, the loop it replaced):
-// the same order of values and the same draws taken, for sizes from 1 to
-// a whole batch and many seeds. At a whole batch about half the shuffles
-// meet an index that might be rejected (each of the n indices with a
-// chance near i/2^32), so the hand-over to the plain loop, and back to
-// the pairs after the doubtful draw, is exercised; the test counts those
-// and fails if none occurred.
+// TestShufflePairsSameMoves holds fisherYates, whose values go two
+// indices a draw, two draws at a time, while no index might be rejected
+// (shufflePairs), to the plain loop of one index a half-draw of
+// math/rand/v2's PCG (refFisherYates, the loop it replaced): the same
+// order of values and the same draws taken, for sizes from 1 to a whole
+// batch and many seeds. At a whole batch about half the shuffles meet an
+// index that might be rejected (each of the n indices with a chance near
+// i/2^32), so the hand-over to the plain loop, at the first or the second
+// of two draws, and back to the pairs after the doubtful draw, is
+// exercised; the test counts both kinds and fails if either is missing.
 func TestShufflePairsSameMoves(t *testing.T) {
 	t.Parallel()
-	handovers := 0
+	var handovers [2]int // at the first, second draw of two taken at once
 	for seed := range uint64(40) {
 		for _, n := range []int{1, 2, 3, 4, 5, 100, 101, BatchSize} {
 			x, want := make([]float64, n), make([]float64, n)
 			for i := range x {
 				x[i], want[i] = float64(i), float64(i)
 			}
-			a, b := rand.NewPCG(seed, 3), rand.NewPCG(seed, 3)
-			if i, _, have := shufflePairs(rand.NewPCG(seed, 3), slices.Clone(x), n-1); have > 0 && i >= 2 {
-				handovers++
+			a, b := newPCG(seed, 3), rand.NewPCG(seed, 3)
+			if i, _, have := shufflePairs(newPCG(seed, 3), slices.Clone(x), n-1); have > 0 && i >= 4 {
+				handovers[(n-1-i)%4/2]++
 			}
 			fisherYates(a, n, x, nil)
 			refFisherYates(b, n, want)
@@ -320,8 +321,8 @@ func TestShufflePairsSameMoves(t *testing.T) {
 			}
 		}
 	}
-	if handovers == 0 {
-		t.Error("no shuffle handed over to the plain loop; the test does not exercise it")
+	if handovers[0] == 0 || handovers[1] == 0 {
+		t.Errorf("handovers to the plain loop at the first and second of two draws: %v; the test does not exercise both", handovers)
 	}
 }
 
