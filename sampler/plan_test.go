@@ -359,12 +359,15 @@ func TestSliceQuantiles(t *testing.T) {
 	pert, _ := NewPERT(0.02, 0.06, 0.12)
 	nrm, _ := NewNormal(235, 12, 200, math.Inf(1))
 	ln, _ := NewLogNormal(0, 0.5, 0, math.Inf(1))
+	lnCut, _ := NewLogNormal(0, 0.5, 0.8, 2) // both limits, so that clamp bites
+	nrmCut, _ := NewNormal(235, 12, 220, 240)
 	rng := rand.New(rand.NewPCG(1, 1))
-	ps := make([]float64, 2000)
+	ps := make([]float64, 20000)
 	for i := range ps {
 		ps[i] = rng.Float64()
 	}
-	for _, d := range []Distribution{Fixed{Value: 3}, u, tri, pert, nrm, ln} {
+	ps[0], ps[1] = 0, 1
+	for _, d := range []Distribution{Fixed{Value: 3}, u, tri, pert, nrm, ln, lnCut, nrmCut} {
 		got := slices.Clone(ps)
 		d.(SliceQuantiler).Quantiles(got)
 		for i, p := range ps {
