@@ -36,6 +36,7 @@ func main() {
 	if os.Getenv("GOGC") == "" {
 		debug.SetGCPercent(50)
 	}
+	adviseHugeHeap()
 	err := run(os.Stdout, os.Stderr, os.Args)
 	if err != nil {
 		fmt.Fprintln(os.Stderr, "rockheat:", err)

@@ -1,0 +1,6 @@
+//go:build !linux
+
+package main
+
+// adviseHugeHeap does nothing outside Linux.
+func adviseHugeHeap() {}
