@@ -140,14 +140,20 @@ func (a *expAcc) add(m uint64, neg int64) {
 // addNormals adds the normal values of xs, whose least and greatest are lo
 // and hi, to the sums (the others are left out; others says whether xs
 // holds any but zeros, which add nothing to a sum): by addWindow if they
-// are all of one sign within its window, else by addExps. The caller
-// counts them (n, counted).
+// are all of one sign within its window; by addWindowBelow if of one sign
+// but wider, the window taking the top windowBinades of them; else by
+// addExps. The caller counts them (n, counted).
 func (m *moments) addNormals(xs []float64, lo, hi float64, others bool) {
 	a, b := math.Float64bits(math.Abs(lo)), math.Float64bits(math.Abs(hi))
-	if e0 := min(a, b) >> 52; !others && (lo > 0 || hi < 0) && e0 >= windowLeast && max(a, b)>>52-e0 < windowBinades {
-		m.addWindow(xs, e0, hi < 0)
-	} else {
+	emin, emax := min(a, b)>>52, max(a, b)>>52
+	e0 := max(emin, emax-(windowBinades-1)) // (emax ≥ 1: values are normal)
+	switch {
+	case others || !(lo > 0 || hi < 0) || e0 < windowLeast:
 		m.addExps(xs)
+	case e0 == emin:
+		m.addWindow(xs, e0, hi < 0)
+	default:
+		m.addWindowBelow(xs, e0, hi < 0)
 	}
 }
 
@@ -189,21 +195,63 @@ const windowLeast = 52
 // exactly. The limbs get the same integers as from the exponent
 // accumulators; the caller counts the values (counted).
 func (m *moments) addWindow(xs []float64, e0 uint64, neg bool) {
+	scale := windowScale(e0, neg)
+	var s0, s1, q0, q1, q2 uint64
+	for _, x := range xs {
+		s0, s1, q0, q1, q2 = windowTerm(s0, s1, q0, q1, q2, uint64(int64(x*scale)))
+	}
+	m.addWindowSums(s0, s1, q0, q1, q2, e0, neg)
+}
+
+// addWindowBelow is addWindow for values of one sign that reach below the
+// window (a wide run's few smallest): those go to their exponent
+// accumulators, as addExps would take them. The sums are of integers,
+// exact, and so the same whichever way a value goes. It is a loop of its
+// own because the test for a value below costs a narrow run a fifth of
+// its time.
+func (m *moments) addWindowBelow(xs []float64, e0 uint64, neg bool) {
+	scale := windowScale(e0, neg)
+	acc := m.acc
+	var s0, s1, q0, q1, q2 uint64
+	for _, x := range xs {
+		u := math.Float64bits(x)
+		if a := u &^ (1 << 63); a>>52 < e0 {
+			if a != 0 { // zeros add nothing
+				acc[a>>52].add(a&fracMask|1<<52, int64(u)>>63)
+			}
+			continue
+		}
+		s0, s1, q0, q1, q2 = windowTerm(s0, s1, q0, q1, q2, uint64(int64(x*scale)))
+	}
+	m.addWindowSums(s0, s1, q0, q1, q2, e0, neg)
+}
+
+// windowScale returns ±2^(1075 − e0), negative for a window of negative
+// values (neg), whose product with a value of the window is its term v.
+func windowScale(e0 uint64, neg bool) float64 {
 	scale := math.Ldexp(1, 1075-int(e0))
 	if neg {
-		scale = -scale
+		return -scale
 	}
-	var s0, s1, q0, q1, q2 uint64 // Σ v and Σ v²
-	for _, x := range xs {
-		v := uint64(int64(x * scale))
-		var c uint64
-		s0, c = bits.Add64(s0, v, 0)
-		s1 += c
-		h, l := bits.Mul64(v, v)
-		q0, c = bits.Add64(q0, l, 0)
-		q1, c = bits.Add64(q1, h, c)
-		q2 += c
-	}
+	return scale
+}
+
+// windowTerm returns a window's Σ v (s1, s0) and Σ v² (q2, q1, q0), in
+// 64-bit words, with the term v added. (Five words in a struct would
+// not stay in registers; five values do.)
+func windowTerm(s0, s1, q0, q1, q2, v uint64) (uint64, uint64, uint64, uint64, uint64) {
+	var c uint64
+	s0, c = bits.Add64(s0, v, 0)
+	s1 += c
+	h, l := bits.Mul64(v, v)
+	q0, c = bits.Add64(q0, l, 0)
+	q1, c = bits.Add64(q1, h, c)
+	return s0, s1, q0, q1, q2 + c
+}
+
+// addWindowSums adds the sums of windowTerm, of the window at e0, to the
+// limbs.
+func (m *moments) addWindowSums(s0, s1, q0, q1, q2, e0 uint64, neg bool) {
 	e := int(e0) - 1075
 	m.sum.add(s1, s0, e, neg)
 	m.sq.add(q1, q0, 2*e, false)

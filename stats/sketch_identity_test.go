@@ -107,6 +107,12 @@ func TestSketchAddIdentical(t *testing.T) {
 		{"lognormal narrow", lognormal(1e5, 40, 0.3, 7), DefaultRelErr},
 		{"negative narrow", negate(lognormal(1e5, -3, 0.3, 8)), DefaultRelErr},
 		{"narrow with zeros", withZeros(lognormal(1e5, 40, 0.3, 9), false), DefaultRelErr},
+		// Wide ranges of one sign: addWindow takes the top 11 binades and
+		// the few values below them one by one, zeros and values far
+		// below the least window among them.
+		{"negative wide", negate(lognormal(1e5, -3, 2, 13)), DefaultRelErr},
+		{"wide with zeros", withZeros(lognormal(1e5, 40, 2, 14), false), DefaultRelErr},
+		{"wide far below", append(lognormal(1e4, 1, 0.3, 15), 0x1p-1000, 0x1p-1021, 3e-300), DefaultRelErr},
 		{"normal", normal(1e5, 0, 1, 2), DefaultRelErr},
 		{"normal fine", normal(3e4, 5, 1, 3), 1e-6},
 		{"adversarial", adversarial(3e4, 4), 0.1},
