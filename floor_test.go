@@ -137,6 +137,7 @@ func (f *floorRun) evaluate(in, out [][]float64, n int) {
 // each one's time per trial and their ratio, "over-floor": what the
 // engine costs beyond drawing the inputs and evaluating the model.
 func BenchmarkEstimateOverFloor(b *testing.B) {
+	AdviseHugeHeap() // as the command does, so that both see its memory
 	rn := demoRun(b)
 	for _, n := range []int{1_000_000, 10_000_000} {
 		b.Run(fmt.Sprintf("trials=%d", n), func(b *testing.B) {

@@ -4,3 +4,6 @@ package rockheat
 
 // hugePages does nothing outside Linux.
 func hugePages(x []float64) {}
+
+// AdviseHugeHeap does nothing outside Linux.
+func AdviseHugeHeap() {}

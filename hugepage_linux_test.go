@@ -1,4 +1,4 @@
-package main
+package rockheat
 
 import (
 	"bufio"
@@ -11,14 +11,14 @@ import (
 )
 
 // TestHugeHeapAdvised: in a fresh process, as the command runs, a large
-// allocation made after adviseHugeHeap lands in memory that carries the
+// allocation made after AdviseHugeHeap lands in memory that carries the
 // huge-page advice, as the kernel reports it: "hg" among the VmFlags of
 // its mapping in /proc/self/smaps (proc(5)); and without the advice
 // (GODEBUG=disablethp=1) it does not. The check runs in a child process
 // (this test binary again), whose heap no other test has used.
 func TestHugeHeapAdvised(t *testing.T) {
 	if os.Getenv("ROCKHEAT_HUGEHEAP_CHILD") == "1" {
-		adviseHugeHeap()
+		AdviseHugeHeap()
 		x := make([]float64, 1<<20) // 8 MB, as a run's columns
 		x[0] = 1
 		flags, err := vmFlags(uintptr(unsafe.Pointer(&x[0])))

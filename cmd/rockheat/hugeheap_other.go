@@ -1,6 +1,0 @@
-//go:build !linux
-
-package main
-
-// adviseHugeHeap does nothing outside Linux.
-func adviseHugeHeap() {}
