@@ -13,9 +13,6 @@ import (
 // kernel's own limit of 40 (from memory: MAXSYMLINKS in fs/namei.c).
 const maxLinks = 40
 
-// accessWrite is W_OK of access(2) (<unistd.h>).
-const accessWrite = 2
-
 // place is where a path given by the user leads.
 type place struct {
 	spelled string      // as the user gave it
@@ -100,9 +97,10 @@ func (e folderMissing) Error() string { return "the folder " + e.dir + " does no
 
 // writable reports whether the file at path, described by fi, may be
 // written: some write bit is set in its mode (checked here, since root
-// may write any file), and access(2) lets this process write it.
+// may write any file), and the system lets this process write it
+// (mayWrite).
 func writable(path string, fi fs.FileInfo) bool {
-	return fi.Mode().Perm()&0o222 != 0 && syscall.Access(path, accessWrite) == nil
+	return fi.Mode().Perm()&0o222 != 0 && mayWrite(path)
 }
 
 // checkFolder checks that dir, where a new or replaced file goes, is a
