@@ -297,21 +297,18 @@ func shufflePairs(rng *pcg, x []float64, i int) (int, uint64, int) {
 	for ; i >= 4 && i < len(x); i -= 4 {
 		s1, s2 := s.next(), s.next2()
 		u, v := s1.out(), s2.out()
-		b1, b2, b3, b4 := uint64(i+1), uint64(i), uint64(i-1), uint64(i-2)
-		m1, m2 := uint64(uint32(u))*b1, (u>>32)*b2
-		m3, m4 := uint64(uint32(v))*b3, (v>>32)*b4
-		if uint32(m1) < uint32(b1) || uint32(m2) < uint32(b2) {
+		j1, j2, ok := pairIndices(u, i)
+		if !ok {
 			*rng = s1
 			return i, u, 2
 		}
-		j1, j2 := int(m1>>32), int(m2>>32) // j1 ≤ i, j2 ≤ i − 1
+		j3, j4, ok := pairIndices(v, i-2)
 		x[i], x[j1] = x[j1], x[i]
 		x[i-1], x[j2] = x[j2], x[i-1]
-		if uint32(m3) < uint32(b3) || uint32(m4) < uint32(b4) {
+		if !ok {
 			*rng = s2
 			return i - 2, v, 2
 		}
-		j3, j4 := int(m3>>32), int(m4>>32)
 		x[i-2], x[j3] = x[j3], x[i-2]
 		x[i-3], x[j4] = x[j4], x[i-3]
 		s = s2
@@ -319,16 +316,24 @@ func shufflePairs(rng *pcg, x []float64, i int) (int, uint64, int) {
 	*rng = s
 	for ; i >= 2 && i < len(x); i -= 2 {
 		u := rng.Uint64()
-		b1, b2 := uint64(i+1), uint64(i)
-		m1, m2 := uint64(uint32(u))*b1, (u>>32)*b2
-		if uint32(m1) < uint32(b1) || uint32(m2) < uint32(b2) {
+		j1, j2, ok := pairIndices(u, i)
+		if !ok {
 			return i, u, 2
 		}
-		j1, j2 := int(m1>>32), int(m2>>32) // j1 ≤ i, j2 ≤ i − 1
 		x[i], x[j1] = x[j1], x[i]
 		x[i-1], x[j2] = x[j2], x[i-1]
 	}
 	return i, 0, 0
+}
+
+// pairIndices returns the indices j1 ≤ i and j2 ≤ i − 1 that the low and
+// high halves of draw u give indices i and i − 1 by Lemire's method, and
+// whether both are accepted at sight (the low part of each product at
+// least its bound), which leaves no doubt.
+func pairIndices(u uint64, i int) (j1, j2 int, ok bool) {
+	b1, b2 := uint64(i+1), uint64(i)
+	m1, m2 := uint64(uint32(u))*b1, (u>>32)*b2
+	return int(m1 >> 32), int(m2 >> 32), uint32(m1) >= uint32(b1) && uint32(m2) >= uint32(b2)
 }
 
 // scoresCorrelation returns the correlation to induce among normal scores
