@@ -26,8 +26,6 @@ import (
 	"fmt"
 	"os"
 	"runtime/debug"
-
-	"rockheat"
 )
 
 func main() {
@@ -38,7 +36,6 @@ func main() {
 	if os.Getenv("GOGC") == "" {
 		debug.SetGCPercent(50)
 	}
-	rockheat.AdviseHugeHeap() // see there: a run takes a page fault for 2 MB, not 4 kB
 	err := run(os.Stdout, os.Stderr, os.Args)
 	if err != nil {
 		fmt.Fprintln(os.Stderr, "rockheat:", err)

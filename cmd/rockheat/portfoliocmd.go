@@ -56,6 +56,7 @@ func portfolioCommand() *cli.Command {
 				return err
 			}
 			defer outs.close()
+			rockheat.AdviseHugeHeap()
 			res, err := rockheat.EstimatePortfolio(&pf.Portfolio, opt)
 			if err != nil {
 				return flagError(err)

@@ -113,6 +113,7 @@ func regress(c *cli.Context) error {
 		}
 		defer set.Abort() // after Commit, a no-op
 	}
+	rockheat.AdviseHugeHeap()
 	cases := runCases(paths, cfg)
 	var junit []expect.Case
 	if cfg.update {

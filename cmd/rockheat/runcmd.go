@@ -105,6 +105,7 @@ func runCommand() *cli.Command {
 			if prog != nil {
 				opt.Progress = prog.update
 			}
+			rockheat.AdviseHugeHeap() // a page fault for 2 MB of the run's memory, not 4 kB
 			estimate := rockheat.Estimate
 			if c.Bool("compare-declines") {
 				estimate = rockheat.CompareDeclines
