@@ -48,3 +48,27 @@ func TestPCGSameAsRandPCG(t *testing.T) {
 		}
 	}
 }
+
+// TestUniformsSameAsOpen01: uniforms, two draws at a time, gives the
+// values of open01 drawn one at a time from math/rand/v2's PCG, for even
+// and odd lengths, and leaves the stream where they would.
+func TestUniformsSameAsOpen01(t *testing.T) {
+	t.Parallel()
+	for _, n := range []int{0, 1, 2, 3, 7, 1000, 1001} {
+		ref := rand.NewPCG(11, uint64(n))
+		want := make([]float64, n)
+		for i := range want {
+			want[i] = (float64(ref.Uint64()>>11) + 0.5) * 0x1p-53 // open01's formula
+		}
+		p, got := newPCG(11, uint64(n)), make([]float64, n)
+		uniforms(p, got)
+		for i := range got {
+			if got[i] != want[i] {
+				t.Fatalf("n %d: value %d is %v, open01 of math/rand/v2's PCG gives %v", n, i, got[i], want[i])
+			}
+		}
+		if p.Uint64() != ref.Uint64() {
+			t.Fatalf("n %d: the stream parts after the values", n)
+		}
+	}
+}

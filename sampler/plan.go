@@ -111,9 +111,7 @@ func (p *Plan) FillRanked(b int, cols [][]float64, ranks [][]int32) error {
 	for j, d := range p.dists {
 		col := cols[j][:n]
 		if p.method == Random {
-			for i := range col {
-				col[i] = open01(rng)
-			}
+			uniforms(rng, col)
 			quantiles(d, col)
 			if ranks != nil {
 				ranks[j] = nil
@@ -365,6 +363,22 @@ func scoresCorrelation(target *mat.SymDense) *mat.SymDense {
 // open01 returns a uniform draw from the open interval (0, 1): the
 // midpoints of the 2^53 equal cells of [0, 1). It never returns 0 or 1,
 // so no draw lands on an infinite tail or on a distribution's open limit.
-func open01(rng *pcg) float64 {
-	return (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53
+func open01(rng *pcg) float64 { return unitOpen(rng.Uint64()) }
+
+// unitOpen returns open01's value of the draw x.
+func unitOpen(x uint64) float64 { return (float64(x>>11) + 0.5) * 0x1p-53 }
+
+// uniforms fills u with draws of open01, in order, two at a time
+// (pcg.next2) with the state in a local value.
+func uniforms(rng *pcg, u []float64) {
+	s, i := *rng, 0
+	for ; i+1 < len(u); i += 2 {
+		s1, s2 := s.next(), s.next2()
+		u[i], u[i+1] = unitOpen(s1.out()), unitOpen(s2.out())
+		s = s2
+	}
+	*rng = s
+	if i < len(u) {
+		u[i] = open01(rng)
+	}
 }
