@@ -1,6 +1,8 @@
 package rockheat
 
 import (
+	"math"
+
 	"rockheat/sampler"
 )
 
@@ -45,6 +47,7 @@ const (
 	// DefaultTrials is the number of trials of a Run that gives none.
 	DefaultTrials = 100_000
 	// MaxTrials bounds the trials of a run: 10^10 trials would take hours
-	// on a laptop even in bounded-memory mode.
-	MaxTrials = 10_000_000_000
+	// on a laptop even in bounded-memory mode (on a 32-bit system, the
+	// largest int, about 2.1·10^9).
+	MaxTrials = min(10_000_000_000, math.MaxInt)
 )
