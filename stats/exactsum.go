@@ -217,7 +217,7 @@ func (m *moments) addWindowBelow(xs []float64, e0 uint64, neg bool) {
 		u := math.Float64bits(x)
 		if a := u &^ (1 << 63); a>>52 < e0 {
 			if a != 0 { // zeros add nothing
-				acc[a>>52].add(a&fracMask|1<<52, int64(u)>>63)
+				addBits(acc, u)
 			}
 			continue
 		}
