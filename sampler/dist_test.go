@@ -101,13 +101,19 @@ func TestPERTQuantileTable(t *testing.T) {
 		a, b := d.Shape()
 		ref := distuv.Beta{Alpha: a, Beta: b}
 		worst := 0.0
-		if d.tab.lo.direct.node == nil || d.tab.hi.direct.node == nil {
+		if d.tab.lo.direct.node == nil || d.tab.hi.direct.node == nil || d.tab.lo.tail.bin == nil || d.tab.hi.tail.bin == nil {
 			t.Errorf("pert(%g, %g, %g): no direct table; its bound is not tested", c.min, c.mode, c.max)
 		}
 		probes := append(grid(2001), 1e-12, 1e-9, 1e-7, 1e-5, 1-1e-5, 1-1e-7, 1-1e-9)
 		rng := rand.New(rand.NewPCG(3, 4))
 		for range 20000 { // the direct tables' middle, and their cell ends
 			probes = append(probes, directLo+rng.Float64()*(0.5-directLo), 1-directLo-rng.Float64()*(0.5-directLo))
+		}
+		for _, b := range append(d.tab.lo.tail.bin, d.tab.hi.tail.bin...) { // the tail tables
+			for k := 0; k < len(b.node); k += 7 {
+				pk := b.lo + (float64(k)+rng.Float64())*b.step
+				probes = append(probes, pk, 1-pk, math.Nextafter(b.lo+float64(k)*b.step, 0))
+			}
 		}
 		for k := 0; k <= directCells; k += 97 {
 			pk := directLo + float64(k)*d.tab.lo.direct.step

@@ -13,7 +13,7 @@ type hermiteTable struct {
 	node          []hermiteNode
 }
 
-type hermiteNode struct{ x, s float64 } // x(p) and dx/dp at a node
+type hermiteNode struct{ x, hs float64 } // x(p) and step·dx/dp at a node
 
 // newHermiteTable tabulates f, which returns x(p) and dx/dp, at cells+1
 // equal steps of p from lo to hi. It returns false when the nodes do not
@@ -26,20 +26,24 @@ func newHermiteTable(lo, hi float64, cells int, f func(p float64) (x, slope floa
 		if !(s > 0 && s < math.Inf(1)) || (k > 0 && !(x > t.node[k-1].x)) {
 			return hermiteTable{}, false
 		}
-		t.node[k] = hermiteNode{x: x, s: s}
+		t.node[k] = hermiteNode{x: x, hs: step * s}
 	}
 	return t, true
 }
 
-// at returns the interpolated x(p) for p in the table's range.
+// at returns the interpolated x(p) for p in the table's range. The cubic
+// is written in powers of u, the fraction of the step, with coefficients
+// from the two nodes' values and scaled slopes (a = h·s₀, b = h·s₁,
+// d = x₁ − x₀): x₀ + u·(a + u·((3d − 2a − b) + u·(a + b − 2d))), the
+// Hermite cubic of the two nodes (Burden & Faires, §3.4) in Horner's
+// form: fewer operations and a shorter chain than its basis functions.
 func (t *hermiteTable) at(p float64) float64 {
 	v := (p - t.lo) * t.inv
 	k := min(int(v), len(t.node)-2)
 	u := v - float64(k)
 	n0, n1 := t.node[k], t.node[k+1]
-	u2, u3 := u*u, u*u*u
-	h := t.step
-	x := (2*u3-3*u2+1)*n0.x + (u3-2*u2+u)*h*n0.s + (-2*u3+3*u2)*n1.x + (u3-u2)*h*n1.s
+	d, a, b := n1.x-n0.x, n0.hs, n1.hs
+	x := n0.x + u*(a+u*((3*d-2*a-b)+u*(a+b-2*d)))
 	return clamp(x, n0.x, n1.x)
 }
 

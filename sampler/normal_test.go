@@ -11,8 +11,9 @@ import (
 // TestNormalQuantileTable checks the tabulated standard normal quantile
 // against gonum's mathext.NormalQuantile (Wichura's AS 241, accurate to
 // about 1e-16 relative) to the bound stated at normalCells, 1e-12, over
-// random p, every node, the p just below each node, and the ends of the
-// table; and that it is odd about p = 1/2 and increasing.
+// random p, every node of the middle and tail tables, the p just below
+// each node, a random p in each tail step, and the ends of the tables;
+// and that it is odd about p = 1/2 and increasing.
 func TestNormalQuantileTable(t *testing.T) {
 	t.Parallel()
 	rng := rand.New(rand.NewPCG(7, 8))
@@ -24,7 +25,13 @@ func TestNormalQuantileTable(t *testing.T) {
 		p := normalLo + float64(k)*normalTable.step
 		probes = append(probes, p, math.Nextafter(p, 0), 1-p, math.Nextafter(1-p, 1))
 	}
-	probes = append(probes, 1e-300, 1e-10, normalLo, math.Nextafter(normalLo, 0), 0.5, 1-normalLo, 1-1e-10)
+	for _, b := range normalTail.bin { // every tail node, and just below it
+		for k := range b.node {
+			p := b.lo + float64(k)*b.step
+			probes = append(probes, p, math.Nextafter(p, 0), 1-p, b.lo+(float64(k)+rng.Float64())*b.step)
+		}
+	}
+	probes = append(probes, 0x1p-20, math.Nextafter(0x1p-20, 0), 1-0x1p-20, 1e-300, 1e-10, normalLo, math.Nextafter(normalLo, 0), 0.5, 1-normalLo, 1-1e-10)
 	worst := 0.0
 	for _, p := range probes {
 		got, want := normalQuantile(p), mathext.NormalQuantile(p)
@@ -34,7 +41,7 @@ func TestNormalQuantileTable(t *testing.T) {
 		t.Errorf("max |z − z_gonum| = %.3g, want ≤ 1e-12", worst)
 	}
 	for range 10_000 {
-		p := 0.5 + rng.Float64()*(0.5-normalLo) // 1 − p exact (Sterbenz)
+		p := 0.5 + rng.Float64()*(0.5-0x1p-20) // 1 − p exact (Sterbenz)
 		if a, b := normalQuantile(p), normalQuantile(1-p); a != -b {
 			t.Fatalf("z(%v) = %v but z(1 − p) = %v", p, a, b)
 		}

@@ -26,12 +26,13 @@ const pertNodes = 2048
 // the distribution is tabulated from its own end, against t = F^(1/α)
 // (lower half) or t = (1 − F)^(1/β) (upper half), in which the quantile is
 // smooth right up to the limit. The error is below 1e-12 of (max − min)
-// (checked against distuv.Beta.Quantile in the tests). In the middle,
-// p in [1/32, 31/32], a direct table in p takes over (see directLo), so a
-// draw there costs a cell look-up and the cubic, and a draw in the tails a
-// power and a look-up in a search index of the nodes (the node a binary
-// search would find). The tables are built once by NewPERT and
-// shared by the copies of a PERT.
+// (checked against distuv.Beta.Quantile in the tests). For p in
+// [2^−20, 1 − 2^−20], direct tables in p take over (see directLo): equal
+// steps in the middle, p in [1/32, 31/32], and a table per binade of p in
+// the tails, so that a draw there costs a cell look-up and the cubic. A
+// draw in the far tails, one in a million, costs a power and a look-up in
+// a search index of the nodes (the node a binary search would find). The
+// tables are built once by NewPERT and shared by the copies of a PERT.
 type PERT struct {
 	min, mode, max float64
 	alpha, beta    float64
@@ -56,18 +57,26 @@ type halfTable struct {
 	start   []int32
 	cellInv float64 // search cells per unit of t
 	// direct tabulates the middle of the half, p in [directLo, 1/2], on
-	// equal steps of p (see tabulateDirect); without nodes when not used.
+	// equal steps of p, and tail the tail below it, p in [2^−20, directLo)
+	// (see tabulateDirect); without nodes when not used.
 	direct hermiteTable
+	tail   tailTable
 }
 
 // The direct table of a half: directCells equal steps of p from directLo
 // to 1/2, where the quantile is smooth enough for a cubic Hermite piece
 // per step to stay within 1e-12 of the range (checked against gonum's
-// Beta quantile in TestPERTAgainstBeta). Below directLo the t-table takes
-// over, whose variable t = p^(1/α) keeps the tail smooth.
+// Beta quantile in TestPERTQuantileTable). Below directLo, a tail table
+// (tailTable) of pertTailCells steps per binade of p takes over, down to
+// p = 2^−20: near 0 the quantile is x ≈ c·p^r with r = 1/α in [1/5, 1],
+// whose Hermite remainder in a binade [P, 2P] of steps h = P/256 is at
+// most h⁴·|x⁗|/384 ≤ x(2P)·|r(r−1)(r−2)(r−3)|/(256⁴·384) ≤ 6.1·10⁻¹³·x,
+// x being at most 1/2 of the range there. Below 2^−20 the t-table serves,
+// whose variable t = p^(1/α) keeps the tail smooth.
 const (
-	directLo    = 1.0 / 32
-	directCells = 8192
+	directLo      = 1.0 / 32
+	directCells   = 8192
+	pertTailCells = 256
 )
 
 type pertNode struct{ t, x, s float64 }
@@ -144,25 +153,34 @@ func (h *halfTable) above(t float64) int {
 	return k
 }
 
-// tabulateDirect builds the direct table: at each step p_k the quantile x
-// from the t-table and its slope dx/dp = 1/pdf(x) (ref is the half's beta
-// distribution). A table whose nodes do not increase is left out.
+// tabulateDirect builds the direct and tail tables: at each step p_k the
+// quantile x from the t-table and its slope dx/dp = 1/pdf(x) (ref is the
+// half's beta distribution). A table whose nodes do not increase is left
+// out, and the tail table with the direct one.
 func (h *halfTable) tabulateDirect(ref distuv.Beta) {
 	density := newBetaDensity(ref)
-	d, ok := newHermiteTable(directLo, 0.5, directCells, func(p float64) (float64, float64) {
+	f := func(p float64) (float64, float64) {
 		x := h.quantileT(p)
 		return x, 1 / density.prob(x)
-	})
-	if ok {
-		h.direct = d
 	}
+	d, ok := newHermiteTable(directLo, 0.5, directCells, f)
+	if !ok {
+		return
+	}
+	h.direct = d
+	h.tail, _ = newTailTable(pertTailCells, f)
 }
 
-// quantile returns the p-quantile, p in [0, 1/2]: from the direct table
-// in its range, else from the t-table.
+// quantile returns the p-quantile, p in [0, 1/2]: from the direct or the
+// tail table in their ranges, else from the t-table.
 func (h *halfTable) quantile(p float64) float64 {
-	if p >= directLo && h.direct.node != nil {
-		return h.direct.at(p)
+	if h.direct.node != nil {
+		if p >= directLo {
+			return h.direct.at(p)
+		}
+		if x, ok := h.tail.at(p); ok {
+			return x
+		}
 	}
 	return h.quantileT(p)
 }

@@ -367,6 +367,8 @@ func TestSliceQuantiles(t *testing.T) {
 		ps[i] = rng.Float64()
 	}
 	ps[0], ps[1] = 0, 1
+	// The tails: far (below 2^−20), at its edge, and within the tail tables.
+	copy(ps[2:], []float64{1e-7, 1 - 1e-7, 0x1p-20, math.Nextafter(0x1p-20, 0), 1 - 0x1p-20, 1e-3, 1 - 1e-3})
 	for _, d := range []Distribution{Fixed{Value: 3}, u, tri, pert, nrm, ln, lnCut, nrmCut} {
 		got := slices.Clone(ps)
 		d.(SliceQuantiler).Quantiles(got)
