@@ -39,28 +39,50 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 	if len(out.HeatInPlace) < n || len(out.RecoverableHeat) < n || len(out.ThermalPower) < n || len(out.ElectricPower) < n {
 		panic(fmt.Sprintf("heatmodel: Reservoir.Evaluate with outputs shorter than n = %d", n))
 	}
-	for i := 0; i < n; i++ {
-		if r.ReservoirTemp.At(i) <= r.ReferenceTemp.At(i) {
-			out.HeatInPlace[i], out.RecoverableHeat[i], out.ThermalPower[i], out.ElectricPower[i] = 0, 0, 0, 0
-			if out.PowerDensity != nil {
-				out.PowerDensity[i] = 0
-			}
+	cols := [...]*Column{&r.Area, &r.Thickness, &r.ReservoirTemp, &r.ReferenceTemp, &r.Porosity,
+		&r.RockDensity, &r.RockHeatCapacity, &r.FluidDensity, &r.FluidHeatCapacity,
+		&r.RecoveryFactor, &r.ConversionEfficiency, &r.CapacityFactor, &r.Life}
+	var ch chunks
+	for lo := 0; lo < n; lo += chunkTrials {
+		hi := min(lo+chunkTrials, n)
+		var in [len(cols)][]float64
+		for k, c := range cols {
+			in[k] = ch.span(k, *c, lo, hi)
+		}
+		pd := ch.scratch[:hi-lo]
+		if out.PowerDensity != nil {
+			pd = out.PowerDensity[lo:hi]
+		}
+		zeroHeat += reservoirChunk(&in, out.HeatInPlace[lo:hi], out.RecoverableHeat[lo:hi],
+			out.ThermalPower[lo:hi], out.ElectricPower[lo:hi], pd)
+	}
+	return zeroHeat
+}
+
+// reservoirChunk is Evaluate on the trials of one chunk: in holds their
+// inputs in the order of Evaluate's cols, and every slice the chunk's
+// length. It returns the number of trials with no heat.
+func reservoirChunk(in *[13][]float64, q, qr, pt, pe, pd []float64) (zeroHeat int) {
+	area := in[0]
+	thick, tr, tref := in[1][:len(area)], in[2][:len(area)], in[3][:len(area)]
+	phi, rhoR, cr := in[4][:len(area)], in[5][:len(area)], in[6][:len(area)]
+	rhoF, cf := in[7][:len(area)], in[8][:len(area)]
+	rf, eta, capf, life := in[9][:len(area)], in[10][:len(area)], in[11][:len(area)], in[12][:len(area)]
+	q, qr, pt, pe, pd = q[:len(area)], qr[:len(area)], pt[:len(area)], pe[:len(area)], pd[:len(area)]
+	for i, a := range area {
+		if tr[i] <= tref[i] {
+			q[i], qr[i], pt[i], pe[i], pd[i] = 0, 0, 0, 0, 0
 			zeroHeat++
 			continue
 		}
-		q := Block{Area: r.Area.At(i), Thickness: r.Thickness.At(i), Porosity: r.Porosity.At(i),
-			RockDensity: r.RockDensity.At(i), RockHeatCapacity: r.RockHeatCapacity.At(i),
-			FluidDensity: r.FluidDensity.At(i), FluidHeatCapacity: r.FluidHeatCapacity.At(i),
-			ReservoirTemp: r.ReservoirTemp.At(i), ReferenceTemp: r.ReferenceTemp.At(i)}.HeatInPlace()
-		qr := r.RecoveryFactor.At(i) * q
-		life := r.Life.At(i)
-		out.HeatInPlace[i] = q
-		out.RecoverableHeat[i] = qr
-		out.ThermalPower[i] = qr / life
-		out.ElectricPower[i] = r.ConversionEfficiency.At(i) * qr / (r.CapacityFactor.At(i) * life)
-		if out.PowerDensity != nil {
-			out.PowerDensity[i] = out.ElectricPower[i] / r.Area.At(i)
-		}
+		h := Block{Area: a, Thickness: thick[i], Porosity: phi[i], RockDensity: rhoR[i], RockHeatCapacity: cr[i],
+			FluidDensity: rhoF[i], FluidHeatCapacity: cf[i], ReservoirTemp: tr[i], ReferenceTemp: tref[i]}.HeatInPlace()
+		r := rf[i] * h
+		q[i] = h
+		qr[i] = r
+		pt[i] = r / life[i]
+		pe[i] = eta[i] * r / (capf[i] * life[i])
+		pd[i] = pe[i] / a
 	}
 	return zeroHeat
 }

@@ -126,3 +126,60 @@ func benchColumn(n int, x float64) Column {
 	}
 	return Vary(c)
 }
+
+// TestReservoirChunks: Evaluate, which takes the trials in chunks of
+// chunkTrials, gives for every trial exactly what the formula gives for
+// that trial alone (Block.HeatInPlace, docs/references.md §1, and the
+// power definitions of Evaluate), whichever columns are constant, across
+// chunk boundaries and in a last, short chunk, and counts the trials
+// without heat.
+func TestReservoirChunks(t *testing.T) {
+	const n = 2*chunkTrials + 37
+	vary := func(x float64, step int) Column {
+		c := make([]float64, n)
+		for i := range c {
+			c[i] = x * (1 + float64(i%step)/100)
+		}
+		return Vary(c)
+	}
+	temps := vary(290, 13) // 290·(1 + k/100) K: every 13th trial at 290 K, some below the 291 K reference
+	temps.Values[n-1] = 291
+	for _, powerDensity := range []bool{true, false} {
+		r := Reservoir{
+			Area: vary(6e6, 7), Thickness: vary(1200, 11), ReservoirTemp: temps, ReferenceTemp: Const(291),
+			Porosity: vary(0.06, 5), RockDensity: Const(2650), RockHeatCapacity: vary(900, 3),
+			FluidDensity: Const(850), FluidHeatCapacity: vary(4600, 17), RecoveryFactor: vary(0.14, 19),
+			ConversionEfficiency: Const(0.11), CapacityFactor: vary(0.9, 2), Life: Const(30 * julianYear),
+		}
+		out := newOutputs(n)
+		if !powerDensity {
+			out.PowerDensity = nil
+		}
+		zero := r.Evaluate(n, out)
+		wantZero := 0
+		for i := range n {
+			b := Block{Area: r.Area.At(i), Thickness: r.Thickness.At(i), Porosity: r.Porosity.At(i),
+				RockDensity: r.RockDensity.At(i), RockHeatCapacity: r.RockHeatCapacity.At(i),
+				FluidDensity: r.FluidDensity.At(i), FluidHeatCapacity: r.FluidHeatCapacity.At(i),
+				ReservoirTemp: r.ReservoirTemp.At(i), ReferenceTemp: r.ReferenceTemp.At(i)}
+			q := b.HeatInPlace()
+			if q == 0 {
+				wantZero++
+			}
+			qr := r.RecoveryFactor.At(i) * q
+			pe := r.ConversionEfficiency.At(i) * qr / (r.CapacityFactor.At(i) * r.Life.At(i))
+			if out.HeatInPlace[i] != q || out.RecoverableHeat[i] != qr || out.ThermalPower[i] != qr/r.Life.At(i) ||
+				out.ElectricPower[i] != pe {
+				t.Fatalf("trial %d: got Q %g, Qr %g, Pt %g, Pe %g; want %g, %g, %g, %g", i,
+					out.HeatInPlace[i], out.RecoverableHeat[i], out.ThermalPower[i], out.ElectricPower[i],
+					q, qr, qr/r.Life.At(i), pe)
+			}
+			if powerDensity && out.PowerDensity[i] != pe/b.Area {
+				t.Fatalf("trial %d: power density %g, want %g", i, out.PowerDensity[i], pe/b.Area)
+			}
+		}
+		if zero != wantZero || wantZero < 2 {
+			t.Errorf("zero-heat trials %d, want %d (and the test wants at least 2)", zero, wantZero)
+		}
+	}
+}
