@@ -11,8 +11,8 @@ const chunkTrials = 512
 // column's value. It holds up to len(buf) constant columns, and scratch
 // for an output that is not wanted.
 type chunks struct {
-	buf     [13][chunkTrials]float64
-	filled  [13]bool
+	buf     [14][chunkTrials]float64
+	filled  [14]bool
 	scratch [chunkTrials]float64
 }
 

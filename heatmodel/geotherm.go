@@ -201,7 +201,7 @@ func (p Profile) Depth(rise float64) float64 {
 	}
 	if p.segs == nil {
 		if p.c == 0 {
-			return rise / p.g
+			return uniformDepth(p.g, rise)
 		}
 		s := p.one()
 		return s.depth(rise)
@@ -215,12 +215,19 @@ func (p Profile) Depth(rise float64) float64 {
 	panic("unreachable")
 }
 
+// uniformDepth is Depth for a uniform gradient g, K/m, and rise > 0, K.
+func uniformDepth(g, rise float64) float64 { return rise / g }
+
+// uniformExcess is excess for a uniform gradient g, K/m: the trapezoid of
+// the linear rise less d over [a, b], K·m.
+func uniformExcess(g, d, a, b float64) float64 { return (g*a - d + g*b - d) / 2 * (b - a) }
+
 // excess returns ∫_a^b (Rise(z) − d) dz, K·m, for 0 ≤ a ≤ b, integrating
 // each layer's polynomial exactly.
 func (p Profile) excess(d, a, b float64) float64 {
 	if p.segs == nil {
 		if p.c == 0 {
-			return (p.g*a - d + p.g*b - d) / 2 * (b - a)
+			return uniformExcess(p.g, d, a, b)
 		}
 		s := p.one()
 		return s.excess(d, a, b)

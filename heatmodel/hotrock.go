@@ -242,6 +242,9 @@ func (h *HotRock) Evaluate(n int, out HotRockOutputs) (zeroHeat int) {
 			panic(fmt.Sprintf("heatmodel: HotRock.Evaluate with PowerAt[%d] shorter than n = %d", k, n))
 		}
 	}
+	if h.Columns == nil && h.Geotherm.IsZero() && h.Decline != DeclineFractures {
+		return h.evaluateUniform(n, out)
+	}
 	fixed := !h.Geotherm.IsZero()
 	p := h.Geotherm
 	for i := 0; i < n; i++ {
