@@ -75,17 +75,27 @@ func (s *FluidScratch) LiquidProperties(n int, p, T Column) (rho, cp Column, err
 		return Const(r), Const(c), nil
 	}
 	d, c := grow(&s.density, n), grow(&s.heatCapacity, n)
-	for i := 0; i < n; i++ {
-		r, h, sat, err := liquidAt(p.At(i), T.At(i))
-		if err != nil {
-			return rho, cp, err
-		}
-		if sat {
-			s.Saturated++
-		}
-		d[i], c[i] = r, h
+	// A constant column is spread over the output buffer it is read
+	// before: the density's for p, the heat capacity's for T.
+	ps, ts := spread(p, d), spread(T, c)
+	sat, bad, err := water.LiquidOrSaturatedDensityCps(ps, ts, d, c)
+	if err != nil {
+		return rho, cp, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p.At(bad)/1e6, T.At(bad)-celsiusZero, err)
 	}
+	s.Saturated += sat
 	return Vary(d), Vary(c), nil
+}
+
+// spread returns the values of c in buf: its own if it varies, else buf
+// filled with its constant.
+func spread(c Column, buf []float64) []float64 {
+	if c.Values != nil {
+		return c.Values[:len(buf)]
+	}
+	for i := range buf {
+		buf[i] = c.Const
+	}
+	return buf
 }
 
 // liquidAt returns the density, kg/m³, and isobaric heat capacity,

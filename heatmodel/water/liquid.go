@@ -47,17 +47,67 @@ func LiquidOrSaturated(p, T float64) (st State, saturated bool, err error) {
 // same saturated flag and error: the same bits as its State's Density and
 // Cp, at two thirds of the cost, for a model that needs only those two.
 func LiquidOrSaturatedDensityCp(p, T float64) (rho, cp float64, saturated bool, err error) {
-	if p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature {
-		ps := saturationPressure(T)
-		if p >= ps {
-			rho, cp = region1DensityCp(p, T)
-			return rho, cp, false, nil
-		}
-		rho, cp = region1DensityCp(ps, T)
-		return rho, cp, true, nil
+	if pe, sat, ok := liquidPressure(p, T); ok {
+		rho, cp = region1DensityCp(pe, T)
+		return rho, cp, sat, nil
 	}
 	_, err = Liquid(p, T)
 	return 0, 0, false, err
+}
+
+// liquidPressure returns the pressure at which LiquidOrSaturated takes
+// the state at (p, T): p, or the saturation pressure p_s(T) when p is
+// below it (saturated), and false when (p, T) is outside region 1's
+// range of temperatures or IF97's of pressures.
+func liquidPressure(p, T float64) (pe float64, saturated, ok bool) {
+	if !(p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature) {
+		return 0, false, false
+	}
+	if ps := saturationPressure(T); p < ps {
+		return ps, true, true
+	}
+	return p, false, true
+}
+
+// LiquidOrSaturatedDensityCps sets rho[i] and cp[i] to what
+// LiquidOrSaturatedDensityCp gives at (p[i], T[i]), the same bits, for
+// each i below len(rho), and returns how many of the states were taken at
+// saturation; p, T and cp must be at least as long as rho. It takes the
+// states two at a time, at about 0.7 of the cost of one by one (see
+// powers1Pair). At the first state outside region 1 it stops and returns
+// its index and LiquidOrSaturatedDensityCp's error; bad is −1 otherwise.
+// rho may be p, and cp may be T: each state is read before its results
+// are written.
+func LiquidOrSaturatedDensityCps(p, T, rho, cp []float64) (saturated, bad int, err error) {
+	n := len(rho)
+	p, T, cp = p[:n], T[:n], cp[:n]
+	i := 0
+	for ; i+1 < n; i += 2 {
+		pa, sa, oka := liquidPressure(p[i], T[i])
+		pb, sb, okb := liquidPressure(p[i+1], T[i+1])
+		if !oka || !okb {
+			break // one of them is the error, found below
+		}
+		rho[i], cp[i], rho[i+1], cp[i+1] = region1DensityCpPair(pa, T[i], pb, T[i+1])
+		saturated += count(sa) + count(sb)
+	}
+	for ; i < n; i++ {
+		r, c, sat, err := LiquidOrSaturatedDensityCp(p[i], T[i])
+		if err != nil {
+			return saturated, i, err
+		}
+		rho[i], cp[i] = r, c
+		saturated += count(sat)
+	}
+	return saturated, -1, nil
+}
+
+// count returns 1 for true and 0 for false.
+func count(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // steamErr is Liquid's error for a state on the steam side of saturation,

@@ -59,3 +59,52 @@ func TestLiquidOrSaturatedDensityCp(t *testing.T) {
 		}
 	}
 }
+
+// TestLiquidOrSaturatedDensityCps: the column form gives, state by state,
+// LiquidOrSaturatedDensityCp's density and heat capacity bit for bit, two
+// at a time or one (odd lengths), with its results written over its
+// inputs or not, counts the saturated states, and stops at the first
+// state outside region 1 with its index and LiquidOrSaturatedDensityCp's
+// error, whether it is the first or second of a pair, or the last.
+func TestLiquidOrSaturatedDensityCps(t *testing.T) {
+	t.Parallel()
+	p, T := benchStates(2001)
+	for i := 0; i < len(p); i += 7 {
+		p[i] = 1e5 // below the saturation pressure above 372.8 K: saturated liquid there
+	}
+	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
+	wantSat := 0
+	for i := range p {
+		if _, _, sat, _ := LiquidOrSaturatedDensityCp(p[i], T[i]); sat {
+			wantSat++
+		}
+	}
+	for _, alias := range []bool{false, true} {
+		rho, cp := make([]float64, len(p)), make([]float64, len(p))
+		pIn, TIn := p, T
+		if alias {
+			copy(rho, p)
+			copy(cp, T)
+			pIn, TIn = rho, cp
+		}
+		sat, bad, err := LiquidOrSaturatedDensityCps(pIn, TIn, rho, cp)
+		if err != nil || bad != -1 || sat != wantSat || wantSat < 100 {
+			t.Fatalf("alias %v: saturated %d, bad %d, %v; want %d (at least 100), -1, nil", alias, sat, bad, err, wantSat)
+		}
+		for i := range p {
+			r, c, _, _ := LiquidOrSaturatedDensityCp(p[i], T[i])
+			if !same(rho[i], r) || !same(cp[i], c) {
+				t.Fatalf("alias %v, state %d (p = %g, T = %g): %v, %v; want %v, %v", alias, i, p[i], T[i], rho[i], cp[i], r, c)
+			}
+		}
+	}
+	for _, at := range []int{4, 7, 10} {
+		q := append([]float64(nil), p[:11]...)
+		q[at] = 2e8 // above IF97's 100 MPa
+		_, wantErr := Liquid(q[at], T[at])
+		_, bad, err := LiquidOrSaturatedDensityCps(q, T, make([]float64, 11), make([]float64, 11))
+		if bad != at || err == nil || err.Error() != wantErr.Error() {
+			t.Errorf("bad state at %d: got bad %d, %v; want %v", at, bad, err, wantErr)
+		}
+	}
+}

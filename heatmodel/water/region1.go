@@ -92,28 +92,41 @@ type r1Powers struct {
 }
 
 // powers1 fills pw with the powers of x, y and iy = 1/y that region 1's
-// terms take.
+// terms take (powers1Pair, for one state).
 func powers1(x, y, iy float64, pw *r1Powers) {
-	// Power tables, built by running products kept in registers (a loop
-	// that reads back the previous entry is several times slower); the
-	// two chains of 1/y, odd and even powers, run side by side.
-	px, py := &pw.x, &pw.y
-	for k, v := 0, 1.0; k <= r1MaxI; k++ {
-		px[k] = v
-		v *= x
+	var spare r1Powers
+	powers1Pair(x, y, iy, pw, x, y, iy, &spare)
+}
+
+// powers1Pair fills pa with the powers of xa, ya and iya = 1/ya, and pb
+// with those of xb, yb and iyb, that region 1's terms take. Each power is
+// a running product, x^k = x^(k−1)·x, kept in registers (a loop that reads
+// back the previous entry is several times slower); the two chains of 1/y,
+// odd and even powers, run side by side. A chain of 32 products is bound
+// by the latency of a multiplication, so the two states' chains run in
+// the same loops, where the processor overlaps them: two states cost
+// little more than one, and each gets the same bits as alone.
+func powers1Pair(xa, ya, iya float64, pa *r1Powers, xb, yb, iyb float64, pb *r1Powers) {
+	for k, v, w := 0, 1.0, 1.0; k <= r1MaxI; k++ {
+		pa.x[k], pb.x[k] = v, w
+		v *= xa
+		w *= xb
 	}
-	for k, v := 0, 1.0; k <= r1MaxJ; k++ {
-		py[k-r1MinJ] = v
-		v *= y
+	for k, v, w := 0, 1.0, 1.0; k <= r1MaxJ; k++ {
+		pa.y[k-r1MinJ], pb.y[k-r1MinJ] = v, w
+		v *= ya
+		w *= yb
 	}
-	iy2 := iy * iy
-	for k, even, odd := 2, iy2, iy; k <= -r1MinJ; k += 2 {
-		py[-r1MinJ-k+1] = odd
-		py[-r1MinJ-k] = even
-		odd *= iy2
-		even *= iy2
+	iya2, iyb2 := iya*iya, iyb*iyb
+	for k, ea, oa, eb, ob := 2, iya2, iya, iyb2, iyb; k <= -r1MinJ; k += 2 {
+		pa.y[-r1MinJ-k+1], pa.y[-r1MinJ-k] = oa, ea
+		pb.y[-r1MinJ-k+1], pb.y[-r1MinJ-k] = ob, eb
+		oa *= iya2
+		ea *= iya2
+		ob *= iyb2
+		eb *= iyb2
 		if k == -r1MinJ-1 {
-			py[0] = odd // y^r1MinJ, the odd power left over
+			pa.y[0], pb.y[0] = oa, ob // y^r1MinJ, the odd power left over
 		}
 	}
 }
@@ -138,14 +151,18 @@ func gibbs1(x, y, iy float64) (s, sI, sII, sJ, sJJ, sIJ float64) {
 
 // gibbs1IJJ is gibbs1's sums weighted by I and by J(J−1) alone, the same
 // bits (the same terms added in the same order), at two thirds of the
-// cost: what the density and the isobaric heat capacity need.
-func gibbs1IJJ(x, y, iy float64) (sI, sJJ float64) {
-	var pw r1Powers
-	powers1(x, y, iy, &pw)
+// cost: what the density and the isobaric heat capacity need; for two
+// states a and b at once (see powers1Pair), each with its own bits.
+func gibbs1IJJ(xa, ya, iya, xb, yb, iyb float64) (sIa, sJJa, sIb, sJJb float64) {
+	var pa, pb r1Powers
+	powers1Pair(xa, ya, iya, &pa, xb, yb, iyb, &pb)
 	for k := range r1 {
-		t, v := pw.term(k)
-		sI += t.nI * v
-		sJJ += t.nJJ * v
+		t, va := pa.term(k)
+		_, vb := pb.term(k)
+		sIa += t.nI * va
+		sJJa += t.nJJ * va
+		sIb += t.nI * vb
+		sJJb += t.nJJ * vb
 	}
 	return
 }
@@ -194,12 +211,34 @@ func region1(p, T float64) State {
 // capacity, J/(kg·K), alone: the same expressions, so the same bits, from
 // the only two sums they need.
 func region1DensityCp(p, T float64) (rho, cp float64) {
+	rho, cp, _, _ = region1DensityCpPair(p, T, p, T)
+	return rho, cp
+}
+
+// region1DensityCpPair is region1DensityCp of two states, (pa, Ta) and
+// (pb, Tb), at little more than the cost of one (see powers1Pair), each
+// with the same bits as alone.
+func region1DensityCpPair(pa, Ta, pb, Tb float64) (rhoA, cpA, rhoB, cpB float64) {
+	xa, ya, taua := region1Vars(pa, Ta)
+	xb, yb, taub := region1Vars(pb, Tb)
+	iya, iyb := 1/ya, 1/yb
+	sIa, sJJa, sIb, sJJb := gibbs1IJJ(xa, ya, iya, xb, yb, iyb)
+	rhoA, cpA = region1FromSums(Ta, taua, 1/xa, iya, sIa, sJJa)
+	rhoB, cpB = region1FromSums(Tb, taub, 1/xb, iyb, sIb, sJJb)
+	return
+}
+
+// region1Vars returns region 1's variables at (p, T): x = 7.1 − π,
+// y = τ − 1.222 and τ.
+func region1Vars(p, T float64) (x, y, tau float64) {
 	pi := p * (1 / r1PStar)
-	tau := r1TStar / T
-	x := 7.1 - pi
-	y := tau - 1.222
-	ix, iy := 1/x, 1/y
-	sI, sJJ := gibbs1IJJ(x, y, iy)
+	tau = r1TStar / T
+	return 7.1 - pi, tau - 1.222, tau
+}
+
+// region1FromSums returns the density and isobaric heat capacity from
+// gibbs1IJJ's sums at (T, τ), ix = 1/x and iy = 1/y.
+func region1FromSums(T, tau, ix, iy, sI, sJJ float64) (rho, cp float64) {
 	gp := -sI * ix
 	gtt := sJJ * iy * iy
 	v := (GasConstant / r1PStar) * T * gp
