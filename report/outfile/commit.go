@@ -10,8 +10,14 @@ import (
 	"path/filepath"
 )
 
-// bufSize is the buffer of each output's writer, in bytes.
-const bufSize = 1 << 20
+// bufSize is the buffer of each output's writer, in bytes: large, for
+// files of samples that run to hundreds of megabytes; stdoutBufSize is
+// that of standard output, which gets reports of a few kilobytes and
+// should not cost a run a megabyte of fresh memory.
+const (
+	bufSize       = 1 << 20
+	stdoutBufSize = 64 << 10
+)
 
 // Modes of new files and folders, set whatever the umask.
 const (
@@ -166,16 +172,16 @@ func (s *Set) Commit() error {
 
 // writeDirect writes standard output, a device or a FIFO.
 func (s *Set) writeDirect(t *Target) error {
-	w := s.stdout
+	w, size := s.stdout, stdoutBufSize
 	var f *os.File
 	if !t.stdout {
 		var err error
 		if f, err = os.OpenFile(t.path, os.O_WRONLY, 0); err != nil {
 			return t.fail(err)
 		}
-		w = f
+		w, size = f, bufSize
 	}
-	bw := bufio.NewWriterSize(w, bufSize)
+	bw := bufio.NewWriterSize(w, size)
 	err := t.write(bw)
 	if err == nil {
 		err = bw.Flush()
