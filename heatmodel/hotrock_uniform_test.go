@@ -10,14 +10,8 @@ import "testing"
 // surface already hotter than the minimum useful temperature, a deeper
 // TopDepth, and trials without useful heat.
 func TestHotRockUniformChunks(t *testing.T) {
-	const n = 2*chunkTrials + 37
-	vary := func(x float64, step int) Column {
-		c := make([]float64, n)
-		for i := range c {
-			c[i] = x * (1 + float64(i%step)/100)
-		}
-		return Vary(c)
-	}
+	const n = chunkTestTrials
+	vary := func(x float64, step int) Column { return chunkTestColumn(x, step) }
 	h := HotRock{
 		Area: vary(2e6, 7), SurfaceTemp: vary(285, 5), Gradient: vary(0.03, 11),
 		MinTemp: vary(380, 13), TopDepth: vary(1000, 3), MaxDepth: vary(4400, 17),

@@ -134,14 +134,8 @@ func benchColumn(n int, x float64) Column {
 // chunk boundaries and in a last, short chunk, and counts the trials
 // without heat.
 func TestReservoirChunks(t *testing.T) {
-	const n = 2*chunkTrials + 37
-	vary := func(x float64, step int) Column {
-		c := make([]float64, n)
-		for i := range c {
-			c[i] = x * (1 + float64(i%step)/100)
-		}
-		return Vary(c)
-	}
+	const n = chunkTestTrials
+	vary := func(x float64, step int) Column { return chunkTestColumn(x, step) }
 	temps := vary(290, 13) // 290·(1 + k/100) K: every 13th trial at 290 K, some below the 291 K reference
 	temps.Values[n-1] = 291
 	for _, powerDensity := range []bool{true, false} {
