@@ -358,13 +358,17 @@ func (u Uniform) Quantiles(ps []float64) {
 }
 
 // Quantiles replaces every p in ps by Quantile(p), panicking as it does,
-// with the formula written into the loop (at) rather than called.
+// with the same bits: on amd64 two at a time (triangularPairs, whose
+// lanes take at's operations in at's order), the rest with the formula
+// written into the loop (at) rather than called.
 func (t Triangular) Quantiles(ps []float64) {
-	for i, p := range ps {
+	k := [6]float64{t.f, t.ba, t.ca, t.bc, t.min, t.max}
+	done := triangularPairs(ps, &k)
+	for i, p := range ps[done:] {
 		if p < 0 || p > 1 {
 			t.Quantile(p) // panics
 		}
-		ps[i] = t.at(p)
+		ps[done+i] = t.at(p)
 	}
 }
 

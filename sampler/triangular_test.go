@@ -3,6 +3,7 @@ package sampler
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/stat/distuv"
@@ -31,6 +32,7 @@ func TestTriangularQuantileIdentical(t *testing.T) {
 		for range 20000 {
 			ps = append(ps, rng.Float64(), f*rng.Float64(), 1-math.Ldexp(rng.Float64(), -rng.IntN(50)))
 		}
+		var in []float64
 		for _, p := range ps {
 			if p < 0 || p > 1 {
 				continue
@@ -38,7 +40,47 @@ func TestTriangularQuantileIdentical(t *testing.T) {
 			if got, want := d.Quantile(p), ref.Quantile(p); !sameBits(got, want) {
 				t.Fatalf("triangular(%g, %g, %g): Quantile(%v) = %v, distuv.Triangle %v", c.min, c.mode, c.max, p, got, want)
 			}
+			in = append(in, p)
 		}
+		// Quantiles, the column form (in pairs on amd64), in the order
+		// above, sorted as a Latin hypercube takes them, and of odd and
+		// even lengths.
+		sorted := slices.Sorted(slices.Values(in))
+		for _, col := range [][]float64{in, in[1:], sorted, sorted[:1], sorted[:2], sorted[:3]} {
+			got := slices.Clone(col)
+			d.Quantiles(got)
+			for i, p := range col {
+				if want := ref.Quantile(p); !sameBits(got[i], want) && !(math.IsNaN(got[i]) && math.IsNaN(want)) {
+					t.Fatalf("triangular(%g, %g, %g): Quantiles gave %v at p = %v, distuv.Triangle %v", c.min, c.mode, c.max, got[i], p, want)
+				}
+			}
+		}
+	}
+}
+
+// TestTriangularQuantilesPanics: the column form panics at a p outside
+// [0, 1] as Quantile does, first or second of a pair or last, after
+// replacing the values before it.
+func TestTriangularQuantilesPanics(t *testing.T) {
+	t.Parallel()
+	d, err := NewTriangular(0, 1, 2)
+	check(t, err)
+	for _, at := range []int{0, 3, 4, 6} {
+		ps := []float64{0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7}
+		ps[at] = 1 + 1e-15
+		func() {
+			defer func() {
+				if recover() == nil {
+					t.Errorf("p out of range at %d: Quantiles did not panic", at)
+				}
+				for i := range at {
+					if want := d.Quantile(float64(i+1) / 10); !sameBits(ps[i], want) {
+						t.Errorf("p out of range at %d: value %d is %v before the panic, want %v", at, i, ps[i], want)
+					}
+				}
+			}()
+			d.Quantiles(ps)
+		}()
 	}
 }
 
