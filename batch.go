@@ -234,13 +234,28 @@ func (wk *worker) newColumn() []float64 {
 }
 
 // toReportUnit converts the SI values x of output sp to its report unit,
-// x/Scale − Offset, in one pass, and returns the index of the first value
+// x/Scale − Offset, in one pass (two values at a time where
+// reportUnitPairs has a kernel), and returns the index of the first value
 // that is infinite or NaN, or −1.
 func toReportUnit(x []float64, sp OutputSpec) int {
 	inv, off := 1/sp.Scale, sp.Offset
 	if inv == 1 && off == 0 { // the identity: only the check
+		if even := len(x) &^ 1; !nonFinitePairs(x[:even]) && firstNonFinite(x[even:]) < 0 {
+			return -1
+		}
 		return firstNonFinite(x)
 	}
+	even := len(x) &^ 1
+	bad := reportUnitPairs(x[:even], inv, off)
+	if !reportUnitLoop(x[even:], inv, off) && !bad {
+		return -1
+	}
+	return firstNonFinite(x)
+}
+
+// reportUnitLoop sets each value v of x to v·inv − off and reports
+// whether any result is infinite or NaN.
+func reportUnitLoop(x []float64, inv, off float64) bool {
 	nan := 0.0 // becomes NaN, and stays so, at the first value not finite
 	for i, v := range x {
 		// The conversion rounds the product, so that it is not fused with
@@ -249,10 +264,7 @@ func toReportUnit(x []float64, sp OutputSpec) int {
 		x[i] = v
 		nan += v - v // ±Inf − ±Inf and NaN − NaN are NaN
 	}
-	if nan == nan {
-		return -1
-	}
-	return firstNonFinite(x)
+	return nan != nan
 }
 
 // drawn returns the columns of the batch's inputs that the plan draws.
