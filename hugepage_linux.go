@@ -58,7 +58,18 @@ func AdviseHugeHeap() {
 		return
 	}
 	b := make([]byte, hugeHeapBytes)
-	_ = syscall.Madvise(b, syscall.MADV_HUGEPAGE)
+	// The advice reaches down to the 64 MB boundary below b: the free
+	// pages just below it, left by start-up's garbage, are where the
+	// runtime puts the next large allocation first, and a column that
+	// began there would begin outside the advice (the heap's arenas are
+	// 64 MB-aligned on 64-bit Linux, so the range stays in the heap's
+	// mapping; where it does not, the mapped part is advised and the
+	// error is of no use). The range goes to madvise(2) as numbers, not as
+	// a Go pointer: below b there may be free heap, which no pointer may
+	// address.
+	start := uintptr(unsafe.Pointer(&b[0]))
+	lo := start &^ (hugeHeapBytes - 1)
+	_, _, _ = syscall.Syscall(syscall.SYS_MADVISE, lo, start+hugeHeapBytes-lo, syscall.MADV_HUGEPAGE)
 	runtime.KeepAlive(b)
 	runtime.GC() // frees b now, before the run's first allocations
 }
