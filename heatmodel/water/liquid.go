@@ -63,6 +63,9 @@ func liquidPressure(p, T float64) (pe float64, saturated, ok bool) {
 	if !(p > 0 && p <= MaxPressure && T >= MinTemperature && T <= Region1MaxTemperature) {
 		return 0, false, false
 	}
+	if p >= saturationBound(T) { // certainly liquid: Eq. 30 would say so
+		return p, false, true
+	}
 	if ps := saturationPressure(T); p < ps {
 		return ps, true, true
 	}
