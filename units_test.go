@@ -29,7 +29,7 @@ func TestToReportUnit(t *testing.T) {
 			wantBad := -1
 			for i, v := range base[:n] {
 				want := float64(v*inv) - off
-				if !sameBitsF(x[i], want) {
+				if !sameBits(x[i], want) {
 					t.Fatalf("scale %g, offset %g, length %d: value %d = %v, want %v", sp.Scale, sp.Offset, n, i, x[i], want)
 				}
 				if wantBad < 0 && (math.IsInf(want, 0) || math.IsNaN(want)) {
@@ -52,4 +52,5 @@ func TestToReportUnit(t *testing.T) {
 	}
 }
 
-func sameBitsF(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
+// sameBits reports whether a and b have the same bits.
+func sameBits(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }

@@ -80,7 +80,7 @@ func (s *FluidScratch) LiquidProperties(n int, p, T Column) (rho, cp Column, err
 	ps, ts := spread(p, d), spread(T, c)
 	sat, bad, err := water.LiquidOrSaturatedDensityCps(ps, ts, d, c)
 	if err != nil {
-		return rho, cp, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p.At(bad)/1e6, T.At(bad)-celsiusZero, err)
+		return rho, cp, fluidError(p.At(bad), T.At(bad), err)
 	}
 	s.Saturated += sat
 	return Vary(d), Vary(c), nil
@@ -104,9 +104,15 @@ func spread(c Column, buf []float64) []float64 {
 func liquidAt(p, T float64) (rho, cp float64, sat bool, err error) {
 	rho, cp, sat, err = water.LiquidOrSaturatedDensityCp(p, T)
 	if err != nil {
-		return 0, 0, false, fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
+		return 0, 0, false, fluidError(p, T, err)
 	}
 	return rho, cp, sat, nil
+}
+
+// fluidError names the state, pressure p in Pa and temperature T in K,
+// whose fluid properties IF97 could not give.
+func fluidError(p, T float64, err error) error {
+	return fmt.Errorf("fluid properties at %.4g MPa, %.2f °C: %w", p/1e6, T-celsiusZero, err)
 }
 
 // ExergyEfficiency returns, for each of n trials, the electric energy per

@@ -43,9 +43,9 @@ func (r *Reservoir) Evaluate(n int, out ReservoirOutputs) (zeroHeat int) {
 		&r.RockDensity, &r.RockHeatCapacity, &r.FluidDensity, &r.FluidHeatCapacity,
 		&r.RecoveryFactor, &r.ConversionEfficiency, &r.CapacityFactor, &r.Life}
 	var ch chunks
+	var in [len(cols)][]float64
 	for lo := 0; lo < n; lo += chunkTrials {
 		hi := min(lo+chunkTrials, n)
-		var in [len(cols)][]float64
 		for k, c := range cols {
 			in[k] = ch.span(k, *c, lo, hi)
 		}

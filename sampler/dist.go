@@ -397,7 +397,8 @@ func (t Truncated) Quantiles(ps []float64) {
 }
 
 // Quantiles replaces every p in ps by Quantile(p), with the same bits,
-// going straight to a direct or tail table for all but the far tails.
+// going straight to a direct table for the middle of the distribution;
+// Quantile takes the rest, through the tail tables (halfTable.quantile).
 func (d PERT) Quantiles(ps []float64) {
 	lo, hi := &d.tab.lo.direct, &d.tab.hi.direct
 	if lo.node == nil || hi.node == nil {
@@ -406,7 +407,6 @@ func (d PERT) Quantiles(ps []float64) {
 		}
 		return
 	}
-	tlo, thi := &d.tab.lo.tail, &d.tab.hi.tail
 	for i, p := range ps {
 		switch {
 		case p >= directLo && p <= 0.5:
@@ -414,22 +414,9 @@ func (d PERT) Quantiles(ps []float64) {
 		case p > 0.5 && p <= 1-directLo: // 1 − p ≥ directLo, exactly
 			ps[i] = d.max - d.width*hi.at(1-p)
 		default:
-			ps[i] = d.tailQuantile(tlo, thi, p)
+			ps[i] = d.Quantile(p)
 		}
 	}
-}
-
-// tailQuantile is Quantile(p) for p outside [directLo, 1 − directLo],
-// from the tail tables tlo and thi where they reach.
-func (d PERT) tailQuantile(tlo, thi *tailTable, p float64) float64 {
-	if p < directLo {
-		if x, ok := tlo.at(p); ok {
-			return d.min + d.width*x
-		}
-	} else if x, ok := thi.at(1 - p); ok { // 1 − p exact, as p > 1/2
-		return d.max - d.width*x
-	}
-	return d.Quantile(p)
 }
 
 var (

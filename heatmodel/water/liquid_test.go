@@ -46,7 +46,6 @@ func TestLiquidOrSaturatedDensityCp(t *testing.T) {
 			ps, Ts = append(ps, p), append(Ts, T)
 		}
 	}
-	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
 	for i, p := range ps {
 		T := Ts[i]
 		rho, cp, sat, err := LiquidOrSaturatedDensityCp(p, T)
@@ -54,7 +53,7 @@ func TestLiquidOrSaturatedDensityCp(t *testing.T) {
 		switch {
 		case (err == nil) != (werr == nil) || (err != nil && err.Error() != werr.Error()):
 			t.Fatalf("p = %g, T = %g: error %v, LiquidOrSaturated %v", p, T, err, werr)
-		case err == nil && (!same(rho, st.Density) || !same(cp, st.Cp) || sat != wsat):
+		case err == nil && (!sameBits(rho, st.Density) || !sameBits(cp, st.Cp) || sat != wsat):
 			t.Fatalf("p = %g, T = %g: %v, %v, %v; LiquidOrSaturated %v, %v, %v", p, T, rho, cp, sat, st.Density, st.Cp, wsat)
 		}
 	}
@@ -72,7 +71,6 @@ func TestLiquidOrSaturatedDensityCps(t *testing.T) {
 	for i := 0; i < len(p); i += 7 {
 		p[i] = 1e5 // below the saturation pressure above 372.8 K: saturated liquid there
 	}
-	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
 	wantSat := 0
 	for i := range p {
 		if _, _, sat, _ := LiquidOrSaturatedDensityCp(p[i], T[i]); sat {
@@ -93,7 +91,7 @@ func TestLiquidOrSaturatedDensityCps(t *testing.T) {
 		}
 		for i := range p {
 			r, c, _, _ := LiquidOrSaturatedDensityCp(p[i], T[i])
-			if !same(rho[i], r) || !same(cp[i], c) {
+			if !sameBits(rho[i], r) || !sameBits(cp[i], c) {
 				t.Fatalf("alias %v, state %d (p = %g, T = %g): %v, %v; want %v, %v", alias, i, p[i], T[i], rho[i], cp[i], r, c)
 			}
 		}
@@ -108,3 +106,6 @@ func TestLiquidOrSaturatedDensityCps(t *testing.T) {
 		}
 	}
 }
+
+// sameBits reports whether a and b have the same bits.
+func sameBits(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
